@@ -1,0 +1,96 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import session from 'express-session';
+import connectPgSimple from 'connect-pg-simple';
+import passport from 'passport';
+import pg from 'pg';
+import path from 'node:path';
+import { existsSync } from 'node:fs';
+import { csrfSync } from 'csrf-sync';
+import type { AppDeps } from './deps';
+import { initModels } from './models';
+import { configurePassport } from './auth/passport';
+import { requestId } from './middleware/request-id';
+import { errorHandler, apiNotFound } from './middleware/error-handler';
+import { apiRouter } from './routes';
+
+export const CSRF_HEADER = 'x-csrf-token';
+
+/** Strict CSP: nothing inline, nothing from another origin. */
+const contentSecurityPolicy = {
+  useDefaults: false,
+  directives: {
+    defaultSrc: ["'self'"],
+    scriptSrc: ["'self'"],
+    styleSrc: ["'self'"],
+    imgSrc: ["'self'", 'data:', 'blob:'],
+    fontSrc: ["'self'"],
+    connectSrc: ["'self'"],
+    workerSrc: ["'self'"],
+    manifestSrc: ["'self'"],
+    objectSrc: ["'none'"],
+    baseUri: ["'self'"],
+    formAction: ["'self'"],
+    frameAncestors: ["'none'"],
+  },
+};
+
+/** The Express app without listen(), so that tests drive it with supertest. */
+export function createApp(deps: AppDeps): Express {
+  initModels(deps.sequelize);
+  configurePassport();
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(requestId);
+  app.use(helmet({ contentSecurityPolicy, crossOriginEmbedderPolicy: false }));
+
+  const PgStore = connectPgSimple(session);
+  const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 5 });
+  app.locals.sessionPool = pool;
+  app.use(
+    session({
+      name: 'sw.sid',
+      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15 }),
+      secret: deps.config.SESSION_SECRET,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: deps.config.appUrl.startsWith('https://'),
+        maxAge: 12 * 60 * 60 * 1000,
+      },
+    }),
+  );
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  const csrf = csrfSync({ size: 32, getTokenFromRequest: (req) => req.headers[CSRF_HEADER] as string | undefined });
+  app.use('/api', express.json({ limit: '5mb' }));
+  app.use('/api', csrf.csrfSynchronisedProtection);
+  app.use('/api', apiRouter(deps, csrf.generateToken));
+  app.use('/api', apiNotFound);
+
+  if (deps.config.SERVE_CLIENT) serveClient(app);
+  app.use(errorHandler(deps.log));
+  return app;
+}
+
+function serveClient(app: Express): void {
+  const dist = path.resolve('dist');
+  if (!existsSync(path.join(dist, 'index.html'))) return;
+  app.use(express.static(dist, { index: false, maxAge: '1h', setHeaders: noCacheForShell }));
+  // every non-API path is a client route
+  app.get('/{*splat}', (_req, res) => {
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(path.join(dist, 'index.html'));
+  });
+}
+
+function noCacheForShell(res: express.Response, file: string): void {
+  if (file.endsWith('index.html') || file.endsWith('sw.js') || file.endsWith('manifest.webmanifest')) {
+    res.setHeader('Cache-Control', 'no-cache');
+  }
+}

@@ -1,0 +1,41 @@
+import { z } from 'zod';
+
+const bool = z
+  .enum(['0', '1', 'true', 'false'])
+  .transform((v) => v === '1' || v === 'true');
+
+const EnvSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default('127.0.0.1'),
+  APP_URL: z.string().url().optional(),
+  DATABASE_URL: z.string().startsWith('postgres://', 'DATABASE_URL must be a postgres:// URL'),
+  SESSION_SECRET: z.string().min(16).default('sparkwright-local-session-secret'),
+  DEMO_PASSWORD: z.string().min(8).default('spark-demo-2026'),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().default(0),
+  MAIL_FROM: z.string().default('Sparkwright <no-reply@larkspur.test>'),
+  S3_ENDPOINT: z.string().default(''),
+  S3_BUCKET: z.string().default('sparkwright-photos'),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_ACCESS_KEY: z.string().default('S3RVER'),
+  S3_SECRET_KEY: z.string().default('S3RVER'),
+  LOCAL_FAKES: bool.default(true),
+  DATA_DIR: z.string().default('.data'),
+  SERVE_CLIENT: bool.default(true),
+  LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
+  ABANDON_AFTER_HOURS: z.coerce.number().positive().default(24),
+});
+
+export type Config = z.infer<typeof EnvSchema> & { appUrl: string };
+
+/** Reads the environment once; an invalid setting stops the process with a readable message. */
+export function loadConfig(env: Record<string, string | undefined> = process.env): Config {
+  const parsed = EnvSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Sparkwright cannot start; fix these settings:\n${lines.join('\n')}`);
+  }
+  const cfg = parsed.data;
+  return { ...cfg, appUrl: cfg.APP_URL ?? `http://localhost:${cfg.PORT}` };
+}

@@ -1,0 +1,16 @@
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config';
+import type { Mailer } from './services/mailer';
+import type { ObjectStore } from './services/storage';
+import type { ReceivedMail } from './dev/fake-smtp';
+
+/** Everything a route or service needs from the outside world; tests build their own. */
+export interface AppDeps {
+  config: Config;
+  sequelize: Sequelize;
+  mailer: Mailer;
+  store: ObjectStore;
+  /** the local fake receiver's mailbox, shown to admins in development; null in production */
+  mailbox: { messages(): ReceivedMail[] } | null;
+  log: (msg: string, err?: unknown) => void;
+}
