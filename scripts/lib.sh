@@ -1,0 +1,25 @@
+# Shared helpers for the project's scripts. Source it from the repository root.
+say() { printf '\033[1m[sparkwright]\033[0m %s\n' "$*" >&2; }
+
+# npm ci when node_modules is missing or older than the lock file
+ensure_node_modules() {
+  if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
+    say "installing npm packages (npm ci)"
+    npm ci --no-audit --no-fund --loglevel=error
+  fi
+}
+
+# Debian's Chromium for the end-to-end tests; never a browser download
+ensure_chromium() {
+  if [ -x /usr/bin/chromium ]; then return; fi
+  if [ "$(id -u)" != 0 ]; then say "Chromium is missing: sudo apt-get install chromium"; exit 1; fi
+  say "installing Debian's chromium (one time)"
+  apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null
+}
+
+# the first free TCP port on 127.0.0.1 at or after $1
+free_port() {
+  local p=$1
+  while (exec 3<>/dev/tcp/127.0.0.1/"$p") 2>/dev/null; do p=$((p + 1)); done
+  echo "$p"
+}

@@ -1,0 +1,104 @@
+import { Router, type Request } from 'express';
+import passport from 'passport';
+import { rateLimit } from 'express-rate-limit';
+import type { AppDeps } from '../deps';
+import { parseInput } from '../lib/validate';
+import { AppError, notFound } from '../lib/errors';
+import { requireUser, type SessionUser } from '../auth/context';
+import { toSessionUser } from '../auth/passport';
+import {
+  LoginInput, SwitchShopInput, ForgotPasswordInput, ResetPasswordInput, AcceptInvitationInput,
+} from '@shared/schema/auth';
+import {
+  describeMe, requestPasswordReset, resetPassword, previewInvitation, acceptInvitation,
+} from '../services/auth.service';
+import { Membership } from '../models';
+
+type TokenFn = (req: Request, overwrite?: boolean) => string;
+
+function authenticate(req: Request): Promise<SessionUser | false> {
+  return new Promise((resolve, reject) => {
+    passport.authenticate('local', { session: false }, (err: unknown, user: SessionUser | false) =>
+      err ? reject(err instanceof Error ? err : new Error(String(err))) : resolve(user),
+    )(req);
+  });
+}
+
+/** req.login regenerates the session (passport >= 0.6), so the pre-login cookie is dead after this. */
+function logIn(req: Request, user: SessionUser): Promise<void> {
+  return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err instanceof Error ? err : new Error(String(err))) : resolve())));
+}
+
+export function authRoutes(deps: AppDeps, csrfToken: TokenFn): Router {
+  const r = Router();
+  const loginLimiter = rateLimit({
+    windowMs: 15 * 60 * 1000,
+    limit: deps.config.LOGIN_RATE_LIMIT,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (req, res) => {
+      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many sign-in attempts. Wait 15 minutes, or reset your password.', requestId: req.requestId } });
+    },
+  });
+
+  r.get('/csrf', (req, res) => {
+    res.json({ token: csrfToken(req) });
+  });
+
+  r.post('/login', loginLimiter, async (req, res) => {
+    req.body = parseInput(LoginInput, req.body, 'The sign-in form');
+    const user = await authenticate(req);
+    if (!user) throw new AppError(401, 'bad_credentials', 'That e-mail and password do not match an account. Check both, or reset your password.');
+    await logIn(req, user);
+    const me = await describeMe(user, undefined);
+    req.session.shopId = me.currentShopId ?? undefined;
+    res.json({ ...me, csrfToken: csrfToken(req, true) });
+  });
+
+  r.post('/logout', async (req, res) => {
+    await new Promise<void>((resolve, reject) => req.logout((err) => (err ? reject(err instanceof Error ? err : new Error(String(err))) : resolve())));
+    await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+    res.clearCookie('sw.sid');
+    res.status(204).end();
+  });
+
+  r.get('/me', requireUser, async (req, res) => {
+    const me = await describeMe(req.user!, req.session.shopId);
+    req.session.shopId = me.currentShopId ?? undefined;
+    res.json(me);
+  });
+
+  r.post('/shop', requireUser, async (req, res) => {
+    const { shopId } = parseInput(SwitchShopInput, req.body);
+    const membership = await Membership.findOne({ where: { shopId, userId: req.user!.id } });
+    if (!membership) throw notFound('That shop');
+    req.session.shopId = shopId;
+    res.json(await describeMe(req.user!, shopId));
+  });
+
+  r.post('/password/forgot', loginLimiter, async (req, res) => {
+    const { email } = parseInput(ForgotPasswordInput, req.body);
+    await requestPasswordReset(deps, email);
+    res.status(202).json({ message: 'If that e-mail has an account, a reset link is on its way. It works once, for one hour.' });
+  });
+
+  r.post('/password/reset', async (req, res) => {
+    const { token, password } = parseInput(ResetPasswordInput, req.body);
+    await resetPassword(deps, token, password);
+    res.status(204).end();
+  });
+
+  r.get('/invitations/:token', async (req, res) => {
+    res.json(await previewInvitation(req.params.token));
+  });
+
+  r.post('/invitations/accept', async (req, res) => {
+    const input = parseInput(AcceptInvitationInput, req.body, 'The invitation form');
+    const user = await acceptInvitation(deps, input);
+    await logIn(req, toSessionUser(user));
+    const me = await describeMe(user, undefined);
+    req.session.shopId = me.currentShopId ?? undefined;
+    res.json({ ...me, csrfToken: csrfToken(req, true) });
+  });
+  return r;
+}

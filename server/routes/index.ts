@@ -1,0 +1,24 @@
+import { Router, type Request } from 'express';
+import type { AppDeps } from '../deps';
+import { requireShop } from '../auth/context';
+import { authRoutes } from './auth.routes';
+import { shopRoutes } from './shop.routes';
+import { vehicleRoutes } from './vehicle.routes';
+import { healthRoutes } from './health.routes';
+
+/**
+ * Mounts every API router. Each feature adds one line here; everything below requireShop has
+ * req.ctx (user, shop, roles) resolved on the server.
+ */
+export function apiRouter(deps: AppDeps, csrfToken: (req: Request, overwrite?: boolean) => string): Router {
+  const api = Router();
+  api.use('/health', healthRoutes(deps));
+  api.use('/auth', authRoutes(deps, csrfToken));
+
+  const shop = Router();
+  shop.use(requireShop);
+  shop.use('/shop', shopRoutes(deps));
+  shop.use('/vehicles', vehicleRoutes());
+  api.use(shop);
+  return api;
+}

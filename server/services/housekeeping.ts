@@ -1,0 +1,25 @@
+import type { AppDeps } from '../deps';
+
+/**
+ * Marks diagnoses left untouched past each shop's abandon time as abandoned. Runs every few
+ * minutes; one UPDATE, so it is safe with several app servers.
+ */
+export async function markAbandoned(deps: AppDeps): Promise<number> {
+  const [, count] = await deps.sequelize.query(
+    `UPDATE diagnoses d SET status = 'abandoned', ended_at = d.last_activity_at, updated_at = now()
+       FROM shops s
+      WHERE d.shop_id = s.id AND d.status = 'active'
+        AND d.last_activity_at < now() - make_interval(secs => 3600 * COALESCE((s.settings->>'abandonAfterHours')::float8, :fallback))`,
+    { replacements: { fallback: deps.config.ABANDON_AFTER_HOURS } },
+  );
+  return Number(count ?? 0);
+}
+
+export function startHousekeeping(deps: AppDeps): () => void {
+  const timer = setInterval(() => {
+    markAbandoned(deps).catch((err: unknown) => deps.log('housekeeping failed', err));
+  }, 5 * 60 * 1000);
+  timer.unref();
+  markAbandoned(deps).catch((err: unknown) => deps.log('housekeeping failed', err));
+  return () => clearInterval(timer);
+}
