@@ -1,0 +1,94 @@
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import request from 'supertest';
+import { startTestApp, Client, signInAs, expectEnvelope, DEMO_PASSWORD, type TestEnv } from './harness';
+import { User } from '../../server/models';
+
+let env: TestEnv;
+beforeAll(async () => { env = await startTestApp(); });
+afterAll(async () => { await env.close(); });
+
+const cookieOf = (res: request.Response) =>
+  ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('sw.sid='))?.split(';')[0];
+
+describe('signing in and out', () => {
+  it('answers health with the database up', async () => {
+    const res = await request(env.app).get('/api/health').expect(200);
+    expect(res.body).toEqual({ ok: true, db: 'up' });
+  });
+
+  it('when a demo user signs in, the session cookie changes and /me names their shop and roles', async () => {
+    const c = new Client(env.app);
+    const csrfRes = await c.agent.get('/api/auth/csrf').expect(200);
+    const before = cookieOf(csrfRes);
+    expect(before).toBeDefined();
+    const login = await c.agent.post('/api/auth/login').set('X-CSRF-Token', csrfRes.body.token)
+      .send({ email: 'tech@larkspur.test', password: DEMO_PASSWORD }).expect(200);
+    const after = cookieOf(login);
+    expect(after).toBeDefined();
+    expect(after).not.toEqual(before);
+    const me = await c.get('/api/auth/me').expect(200);
+    expect(me.body.user.email).toBe('tech@larkspur.test');
+    expect(me.body.shops).toEqual([expect.objectContaining({ name: 'Larkspur Lane Powersports', roles: ['technician'] })]);
+  });
+
+  it('after sign-out the old session cookie is refused', async () => {
+    const c = await signInAs(env.app, 'lead');
+    const me = await c.get('/api/auth/me').expect(200);
+    expect(me.body.user.email).toBe('lead@larkspur.test');
+    const jar = c.agent.jar.getCookie('sw.sid', { domain: '127.0.0.1', path: '/', secure: false, script: false });
+    const oldCookie = `sw.sid=${jar?.value}`;
+    await c.post('/api/auth/logout').expect(204);
+    const replay = await request(env.app).get('/api/auth/me').set('Cookie', oldCookie).expect(401);
+    expect(expectEnvelope(replay.body).code).toBe('unauthenticated');
+  });
+
+  it('a wrong password and an unknown user get the same answer', async () => {
+    const a = await new Client(env.app).signIn('tech@larkspur.test', 'not-the-password');
+    const b = await new Client(env.app).signIn('nobody@larkspur.test', 'not-the-password');
+    expect(a.status).toBe(401);
+    expect(b.status).toBe(401);
+    const ea = expectEnvelope(a.body);
+    const eb = expectEnvelope(b.body);
+    expect({ code: ea.code, message: ea.message }).toEqual({ code: eb.code, message: eb.message });
+  });
+
+  it('a sign-in form with a malformed e-mail gets 400 with a field issue', async () => {
+    const res = await new Client(env.app).signIn('not-an-email', 'x');
+    expect(res.status).toBe(400);
+    expect(expectEnvelope(res.body).issues).toEqual([expect.objectContaining({ path: 'email' })]);
+  });
+
+  it('a write without the CSRF token answers 403', async () => {
+    const c = await signInAs(env.app, 'admin');
+    const res = await c.agent.post('/api/vehicles').send({ label: 'X-1' }).expect(403);
+    expect(expectEnvelope(res.body).code).toBe('csrf');
+    const stale = await c.agent.post('/api/vehicles').set('X-CSRF-Token', 'forged').send({ label: 'X-1' }).expect(403);
+    expect(expectEnvelope(stale.body).code).toBe('csrf');
+  });
+
+  it('a body that is not JSON gets a clear 400 without a stack trace', async () => {
+    const c = await signInAs(env.app, 'admin');
+    const res = await c.agent.post('/api/vehicles').set('X-CSRF-Token', c.csrf).set('Content-Type', 'application/json').send('{"label":');
+    expect(res.status).toBe(400);
+    expect(expectEnvelope(res.body).code).toBe('invalid_json');
+  });
+
+  it('passwords are stored as bcrypt hashes with cost 12', async () => {
+    const u = await User.findOne({ where: { email: 'tech@larkspur.test' } });
+    expect(u!.passwordHash).toMatch(/^\$2[aby]\$12\$/);
+  });
+});
+
+describe('the sign-in rate limit', () => {
+  it('answers 429 after too many attempts', async () => {
+    const limited = await startTestApp({ LOGIN_RATE_LIMIT: '3' });
+    try {
+      const statuses: number[] = [];
+      for (let i = 0; i < 5; i++) statuses.push((await new Client(limited.app).signIn('tech@larkspur.test', 'wrong-password')).status);
+      expect(statuses.slice(0, 3)).toEqual([401, 401, 401]);
+      expect(statuses.slice(3)).toEqual([429, 429]);
+    } finally {
+      await limited.close();
+    }
+  });
+});
