@@ -3,7 +3,7 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 /** A shop meter and its accuracy spec, ±(% of reading + counts) at a resolution per quantity. */
 export interface MeterSpecEntry {
   quantity: string;
-  pctOfReading: number;
+  percentOfReading: number;
   counts: number;
   resolution: number;
 }

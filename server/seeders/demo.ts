@@ -33,10 +33,10 @@ const DEMO_METERS = [
     name: 'Bench meter 1',
     spec: {
       entries: [
-        { quantity: 'resistance', pctOfReading: 0.9, counts: 2, resolution: 0.1 },
-        { quantity: 'voltage-dc', pctOfReading: 0.5, counts: 2, resolution: 0.01 },
-        { quantity: 'voltage-ac', pctOfReading: 1.0, counts: 3, resolution: 0.1 },
-        { quantity: 'capacitance', pctOfReading: 3.0, counts: 5, resolution: 1e-9 },
+        { quantity: 'resistance', percentOfReading: 0.9, counts: 2, resolution: 0.1 },
+        { quantity: 'dc-voltage', percentOfReading: 0.5, counts: 2, resolution: 0.01 },
+        { quantity: 'ac-voltage', percentOfReading: 1.0, counts: 3, resolution: 0.1 },
+        { quantity: 'capacitance', percentOfReading: 3.0, counts: 5, resolution: 1e-9 },
       ],
     },
   },
@@ -44,9 +44,9 @@ const DEMO_METERS = [
     name: 'Yard meter with peak-voltage adapter',
     spec: {
       entries: [
-        { quantity: 'resistance', pctOfReading: 1.2, counts: 3, resolution: 0.1 },
-        { quantity: 'voltage-peak', pctOfReading: 3.0, counts: 5, resolution: 1 },
-        { quantity: 'voltage-dc', pctOfReading: 0.8, counts: 3, resolution: 0.01 },
+        { quantity: 'resistance', percentOfReading: 1.2, counts: 3, resolution: 0.1 },
+        { quantity: 'peak-voltage', percentOfReading: 3.0, counts: 5, resolution: 1 },
+        { quantity: 'dc-voltage', percentOfReading: 0.8, counts: 3, resolution: 0.01 },
       ],
     },
   },

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { readingQuantitySchema } from './procedure';
 
 export const ShopSettingsInput = z.object({
   name: z.string().trim().min(1, 'Give the shop a name').max(120),
@@ -11,8 +12,8 @@ export const ShopSettingsInput = z.object({
 export type ShopSettingsInput = z.infer<typeof ShopSettingsInput>;
 
 export const MeterSpecEntrySchema = z.object({
-  quantity: z.string().min(1),
-  pctOfReading: z.number().min(0).max(50),
+  quantity: readingQuantitySchema,
+  percentOfReading: z.number().min(0).max(50),
   counts: z.number().int().min(0).max(1000),
   resolution: z.number().positive(),
 });

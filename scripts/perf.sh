@@ -1,0 +1,12 @@
+#!/usr/bin/env bash
+# npm run perf:*: a benchmark against a throwaway PostgreSQL on 127.0.0.1 (never part of npm test).
+set -euo pipefail
+cd "$(dirname "$0")/.."
+source scripts/lib.sh
+ensure_node_modules
+export PG_ROOT=$PWD/.tmp/pg-perf
+DATABASE_URL=$(APP_DB=sparkwright_perf bash scripts/pg.sh start --throwaway)
+export DATABASE_URL NODE_ENV=test
+trap 'bash scripts/pg.sh stop' EXIT
+npx tsx scripts/migrate.ts
+npx tsx "$@"
