@@ -73,3 +73,12 @@ export function formatReading(
   const [exp, prefix] = engineeringPrefix(reading.quantity, rounded);
   return withUnit(formatSignificant(rounded / 10 ** exp, digits), prefix + info.base);
 }
+
+/**
+ * Writes a limit an author set (no entered precision) in a display unit, without noise digits.
+ * Example: `formatLimit(0.00055, 'length', 'mm')` is "0.55 mm".
+ */
+export function formatLimit(value: number, quantity: Quantity, unit?: string): string {
+  const u = unit ?? QUANTITY_INFO[quantity].defaultUnit;
+  return withUnit(String(Number((value / unitFactor(quantity, u)).toPrecision(6))), u);
+}
