@@ -1,0 +1,2 @@
+export * from './quantile';
+export * from './histogram';
