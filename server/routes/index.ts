@@ -5,6 +5,10 @@ import { authRoutes } from './auth.routes';
 import { shopRoutes } from './shop.routes';
 import { vehicleRoutes } from './vehicle.routes';
 import { healthRoutes } from './health.routes';
+import { benchRoutes } from './bench.routes';
+import { diagnosisRoutes } from './diagnosis.routes';
+import { attachmentRoutes } from './attachment.routes';
+import { procedureRoutes } from './procedure.routes';
 
 /**
  * Mounts every API router. Each feature adds one line here; everything below requireShop has
@@ -19,6 +23,10 @@ export function apiRouter(deps: AppDeps, csrfToken: (req: Request, overwrite?: b
   shop.use(requireShop);
   shop.use('/shop', shopRoutes(deps));
   shop.use('/vehicles', vehicleRoutes());
+  shop.use('/bench', benchRoutes(deps));
+  shop.use('/diagnoses', diagnosisRoutes(deps));
+  shop.use('/attachments', attachmentRoutes(deps));
+  shop.use('/procedures', procedureRoutes(deps));
   api.use(shop);
   return api;
 }
