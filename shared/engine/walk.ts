@@ -1,0 +1,263 @@
+import type { FormulaStep, ProcedureDocument, ReadingStep, Step } from '../schema/procedure';
+import { bandFor } from '../measure/bands';
+import { evaluateFormula, type FormulaValue } from '../measure/formula';
+import { parseReading, type Reading, type ReadingError } from '../measure/parse';
+import { decideReading, type ReadingDecision } from '../measure/verdict';
+import { stepView, type StepView } from './step-view';
+
+/** What the technician did at a step. */
+export type WalkAnswer =
+  | { readonly kind: 'reading'; readonly text: string; /** Test-lead reading to null out, if the step offers it. */ readonly leadText?: string }
+  | { readonly kind: 'observation'; readonly answerId: string }
+  | { readonly kind: 'task' };
+
+/** One entry of the diagnosis log, in the order it happened. An entry for an earlier step goes back. */
+export interface WalkEntry {
+  readonly stepId: string;
+  readonly answer: WalkAnswer;
+  /** The DANGER note was acknowledged. */
+  readonly acknowledged?: boolean;
+  /** Which visit to go back to when a loop passed the step more than once (index into `path`). */
+  readonly pathIndex?: number;
+}
+
+export type WalkProblemCode =
+  | 'no-start' | 'wrong-step' | 'wrong-kind' | 'not-acknowledged' | 'bad-reading' | 'unknown-answer'
+  | 'missing-value' | 'no-band' | 'formula-failed' | 'dangling' | 'ended';
+
+export interface WalkProblem {
+  readonly code: WalkProblemCode;
+  readonly message: string;
+  readonly readingError?: ReadingError;
+}
+
+export interface PathStep {
+  readonly stepId: string;
+  readonly kind: Step['kind'];
+  /** Index of the log entry that answered it; null for computed Formulas and the ending. */
+  readonly entryIndex: number | null;
+  readonly answer?: WalkAnswer;
+  readonly reading?: Reading;
+  readonly decision?: ReadingDecision;
+  /** Value in base units after corrections (Readings) or as computed (Formulas). */
+  readonly value?: number;
+  /** Where the diagnosis went next; the same step when a borderline reading is re-measured. */
+  readonly next: string | null;
+  readonly outcome: 'answered' | 're-measure' | 'computed' | 'ended' | 'stuck';
+}
+
+export interface EntryRecord {
+  readonly index: number;
+  readonly entry: WalkEntry;
+  /** Superseded entries stay in the record: the path they were on no longer applies. */
+  readonly status: 'applied' | 'superseded' | 'rejected';
+  readonly problem?: WalkProblem;
+}
+
+export interface WalkState {
+  readonly status: 'in-progress' | 'ended' | 'stuck';
+  /** The step to answer now; null when ended or stuck. */
+  readonly current: StepView | null;
+  /** The current step asks to measure again (the last reading was borderline). */
+  readonly remeasure: boolean;
+  readonly path: readonly PathStep[];
+  readonly record: readonly EntryRecord[];
+  readonly ending: StepView | null;
+  /** Values measured or computed on the current path, by step id. */
+  readonly values: Readonly<Record<string, FormulaValue>>;
+  /** Why the walk is stuck, or why the last entry was refused. */
+  readonly problem: WalkProblem | null;
+}
+
+type Outcome = { path: PathStep; value?: FormulaValue } | WalkProblem;
+
+const problem = (code: WalkProblemCode, message: string, extra: Partial<WalkProblem> = {}): WalkProblem => ({ code, message, ...extra });
+
+class Walk {
+  readonly steps = new Map<string, Step>();
+  path: PathStep[] = [];
+  record: EntryRecord[] = [];
+  values: Record<string, FormulaValue> = {};
+  current: Step | null = null;
+  status: WalkState['status'] = 'in-progress';
+  problem: WalkProblem | null = null;
+
+  constructor(readonly doc: ProcedureDocument) {
+    for (const s of doc.steps) if (!this.steps.has(s.id)) this.steps.set(s.id, s);
+  }
+
+  arrive(id: string | null): void {
+    const step = id === null ? undefined : this.steps.get(id);
+    if (!step) return this.stick(problem('dangling', `The procedure points to "${id}", which does not exist; hand the machine to a senior technician.`));
+    this.current = step;
+    if (step.kind === 'finding' || step.kind === 'handoff') {
+      this.path.push({ stepId: step.id, kind: step.kind, entryIndex: null, next: null, outcome: 'ended' });
+      this.status = 'ended';
+      this.current = null;
+      return;
+    }
+    if (step.kind === 'formula') {
+      const r = this.compute(step);
+      if ('code' in r) return this.stick(r);
+      this.take(r);
+    }
+  }
+
+  stick(p: WalkProblem): void {
+    this.status = 'stuck';
+    this.problem = p;
+    this.current = null;
+  }
+
+  take(r: { path: PathStep; value?: FormulaValue }): void {
+    this.path.push(r.path);
+    if (r.value) this.values[r.path.stepId] = r.value;
+    if (r.path.outcome === 're-measure' || r.path.outcome === 'stuck') return;
+    this.arrive(r.path.next);
+  }
+
+  compute(step: FormulaStep): Outcome {
+    const r = evaluateFormula(step.expression, this.values, { expect: step.quantity });
+    if (!r.ok) return problem('formula-failed', `The app could not compute ${step.title}: ${r.error.message}`);
+    const decision = decideReading({ value: r.value, limits: step.limits, bands: step.bands });
+    const next = step.bands.length > 0 ? (bandFor(step.bands, r.value)?.next ?? null) : (step.next ?? null);
+    if (next === null) return problem('no-band', `No band of ${step.title} covers the computed value; hand the machine to a senior technician.`);
+    const value = { value: r.value, quantity: step.quantity };
+    return { path: { stepId: step.id, kind: 'formula', entryIndex: null, decision, value: r.value, next, outcome: 'computed' }, value };
+  }
+
+  remeasured(stepId: string): number {
+    let n = 0;
+    for (let i = this.path.length - 1; i >= 0 && this.path[i]!.stepId === stepId && this.path[i]!.outcome === 're-measure'; i--) n++;
+    return n;
+  }
+
+  measure(step: ReadingStep, answer: Extract<WalkAnswer, { kind: 'reading' }>, index: number): Outcome {
+    const parsed = parseReading(answer.text, step.quantity, step.unit);
+    if (!parsed.ok) return problem('bad-reading', parsed.error.message, { readingError: parsed.error });
+    let lead: number | undefined;
+    if (step.leadNull && answer.leadText !== undefined && answer.leadText.trim() !== '') {
+      const l = parseReading(answer.leadText, 'resistance', 'Ω');
+      if (!l.ok) return problem('bad-reading', `Test leads: ${l.error.message}`, { readingError: l.error });
+      lead = l.reading.value;
+    }
+    const temp = step.winding ? this.values[step.winding.temperatureStep] : undefined;
+    if (step.winding && !temp) return problem('missing-value', `${step.title} needs the engine temperature, which was not measured on this path.`);
+    const decision = decideReading({
+      value: parsed.reading.value, limits: step.limits, meter: step.meter, rule: step.decision, leadResistance: lead,
+      winding: step.winding && temp ? { temperature: temp.value, referenceTemperature: step.winding.referenceTemperature } : undefined,
+      bands: step.bands, borderline: step.borderline, remeasured: this.remeasured(step.id),
+    });
+    const route = decision.route;
+    const base = { stepId: step.id, kind: 'reading' as const, entryIndex: index, answer, reading: parsed.reading, decision, value: decision.value };
+    const value = { value: decision.value, quantity: step.quantity };
+    if (route.kind === 're-measure') return { path: { ...base, next: step.id, outcome: 're-measure' }, value };
+    if (route.kind === 'no-band') return { path: { ...base, next: null, outcome: 'stuck' }, value };
+    return { path: { ...base, next: route.next, outcome: 'answered' }, value };
+  }
+
+  answer(step: Step, entry: WalkEntry, index: number): Outcome {
+    const a = entry.answer;
+    if (step.kind !== a.kind) return problem('wrong-kind', `${step.title} expects ${step.kind === 'observation' ? 'an answer' : `a ${step.kind}`}, not a ${a.kind}.`);
+    if (step.safety.some((n) => n.signal === 'DANGER') && !entry.acknowledged) {
+      return problem('not-acknowledged', 'Read and acknowledge the DANGER note before answering this step.');
+    }
+    const done = (next: string | null): Outcome => ({ path: { stepId: step.id, kind: step.kind, entryIndex: index, answer: a, next, outcome: 'answered' } });
+    if (step.kind === 'reading' && a.kind === 'reading') return this.measure(step, a, index);
+    if (step.kind === 'observation' && a.kind === 'observation') {
+      const chosen = step.answers.find((x) => x.id === a.answerId);
+      return chosen ? done(chosen.next) : problem('unknown-answer', `"${a.answerId}" is not one of the answers of ${step.title}.`);
+    }
+    if (step.kind === 'task') return step.next === undefined ? problem('dangling', `${step.title} has no next step; hand the machine to a senior technician.`) : done(step.next);
+    return problem('wrong-kind', `${step.title} is not answered by the technician.`);
+  }
+
+  /** Going back: later path steps no longer apply; their entries stay in the record as superseded. */
+  rewind(to: number): void {
+    const target = this.path[to]!.stepId;
+    const dropped = new Set(this.path.slice(to).map((p) => p.entryIndex).filter((i): i is number => i !== null));
+    this.record = this.record.map((r) => (dropped.has(r.index) ? { ...r, status: 'superseded' } : r));
+    this.path = this.path.slice(0, to);
+    this.values = {};
+    for (const p of this.path) {
+      const s = this.steps.get(p.stepId);
+      if (p.value !== undefined && s && (s.kind === 'reading' || s.kind === 'formula')) this.values[p.stepId] = { value: p.value, quantity: s.quantity };
+    }
+    this.current = this.steps.get(target) ?? null;
+    this.status = 'in-progress';
+    this.problem = null;
+  }
+
+  backTarget(entry: WalkEntry): number {
+    if (entry.pathIndex !== undefined) {
+      const p = this.path[entry.pathIndex];
+      return p && p.stepId === entry.stepId && p.entryIndex !== null ? entry.pathIndex : -1;
+    }
+    for (let i = this.path.length - 1; i >= 0; i--) {
+      const p = this.path[i]!;
+      if (p.stepId !== entry.stepId || p.entryIndex === null) continue;
+      // A run of re-measurements is one visit: changing it starts that visit afresh.
+      while (i > 0 && this.path[i - 1]!.stepId === entry.stepId && this.path[i - 1]!.outcome === 're-measure') i--;
+      return i;
+    }
+    return -1;
+  }
+
+  apply(entry: WalkEntry, index: number): void {
+    const isCurrent = this.current?.id === entry.stepId && entry.pathIndex === undefined;
+    if (!isCurrent) {
+      const k = this.backTarget(entry);
+      if (k < 0) {
+        const p = this.status === 'ended'
+          ? problem('ended', 'The diagnosis has ended; go back to a step on its path to change an answer.')
+          : problem('wrong-step', `"${entry.stepId}" is not the current step nor on the path taken.`);
+        this.record.push({ index, entry, status: 'rejected', problem: p });
+        this.problem = p;
+        return;
+      }
+      this.rewind(k);
+    }
+    const outcome = this.answer(this.current!, entry, index);
+    if ('code' in outcome) {
+      this.record.push({ index, entry, status: 'rejected', problem: outcome });
+      this.problem = outcome;
+      return;
+    }
+    this.record.push({ index, entry, status: 'applied' });
+    this.problem = null;
+    this.take(outcome);
+    if (outcome.path.outcome === 'stuck') {
+      this.stick(problem('no-band', `No band of ${this.steps.get(outcome.path.stepId)!.title} covers ${outcome.path.reading?.understood}; check the reading, or hand the machine to a senior technician.`));
+    }
+  }
+
+  state(): WalkState {
+    const last = this.path[this.path.length - 1];
+    const endingStep = this.status === 'ended' && last ? this.steps.get(last.stepId) : undefined;
+    return {
+      status: this.status,
+      current: this.status === 'in-progress' && this.current ? stepView(this.doc, this.current) : null,
+      remeasure: this.status === 'in-progress' && last?.outcome === 're-measure',
+      path: this.path, record: this.record,
+      ending: endingStep ? stepView(this.doc, endingStep) : null,
+      values: this.values, problem: this.problem,
+    };
+  }
+}
+
+/**
+ * Replays a diagnosis log over a procedure: where it stands, what to show, where it went.
+ * Pure: the same document and log always give the same state.
+ * Example: `walkProcedure(doc, [{ stepId: 'plugSpark', answer: { kind: 'observation', answerId: 'none' } }]).current.id`
+ * → the step after the "none" answer.
+ */
+export function walkProcedure(doc: ProcedureDocument, log: readonly WalkEntry[]): WalkState {
+  const walk = new Walk(doc);
+  if (!walk.steps.has(doc.start)) {
+    walk.stick(problem('no-start', `The procedure's first step "${doc.start}" does not exist; it cannot be walked.`));
+    return walk.state();
+  }
+  walk.arrive(doc.start);
+  log.forEach((entry, i) => walk.apply(entry, i));
+  return walk.state();
+}
