@@ -1,0 +1,127 @@
+import { describe, it, expect } from 'vitest';
+import { lintProcedure } from '@shared/engine/lint';
+import { doc, ohmsReading, observation, finding, task } from '../shared/fixtures';
+import { applyEdit, historyReducer, initialHistory, UNCONNECTED } from '../../src/features/drafting/lib/edits';
+import { toFlow, fromFlow } from '../../src/features/drafting/lib/flow';
+import { copySteps, pasteSteps } from '../../src/features/drafting/lib/clipboard';
+import { diffDocuments } from '../../src/features/drafting/lib/diff';
+import { stepFor } from '../../src/features/drafting/lib/new-step';
+
+const coilCheck = () => doc([
+  ohmsReading('coilPrimary', 0.2, 1.0, { low: 'shorted', ok: 'sparkSeen', high: 'openCoil' }),
+  observation('sparkSeen', { yes: 'openCoil', no: 'shorted' }),
+  finding('shorted'),
+  finding('openCoil'),
+]);
+
+describe('editing as data', () => {
+  it('undo brings back the document before an edit and redo applies it again', () => {
+    const start = coilCheck();
+    let h = initialHistory(start);
+    const added = stepFor(start, 'task', { x: 10, y: 20 });
+    h = historyReducer(h, { type: 'edit', edit: { type: 'add-steps', steps: [added] } });
+    h = historyReducer(h, { type: 'edit', edit: { type: 'connect', from: 'sparkSeen', handle: 'answer:no', to: added.id } });
+    expect(h.present.steps).toHaveLength(5);
+    h = historyReducer(historyReducer(h, { type: 'undo' }), { type: 'undo' });
+    expect(h.present).toEqual(start);
+    h = historyReducer(h, { type: 'redo' });
+    expect(h.present.steps.map((s) => s.id)).toContain(added.id);
+    expect(h.future).toHaveLength(1);
+  });
+
+  it('a new edit after undo drops the redo list', () => {
+    let h = initialHistory(coilCheck());
+    h = historyReducer(h, { type: 'edit', edit: { type: 'set-start', id: 'sparkSeen' } });
+    h = historyReducer(h, { type: 'undo' });
+    h = historyReducer(h, { type: 'edit', edit: { type: 'move-steps', moves: [{ id: 'shorted', position: { x: 5, y: 5 } }] } });
+    expect(h.future).toEqual([]);
+  });
+
+  it('connecting from a band handle points that band at the step, and the edge carries the band label', () => {
+    const d = applyEdit(coilCheck(), { type: 'connect', from: 'coilPrimary', handle: 'band:high', to: 'shorted' });
+    const reading = d.steps[0]!;
+    expect(reading.kind === 'reading' && reading.bands[2]!.next).toBe('shorted');
+    const { edges } = toFlow(d);
+    expect(edges).toContainEqual(expect.objectContaining({ source: 'coilPrimary', sourceHandle: 'band:high', target: 'shorted', label: 'Above' }));
+  });
+
+  it('removing a step leaves the branches that pointed at it open, and the soundness check names them', () => {
+    const d = applyEdit(coilCheck(), { type: 'remove-steps', ids: ['openCoil'] });
+    const obs = d.steps.find((s) => s.id === 'sparkSeen')!;
+    expect(obs.kind === 'observation' && obs.answers[0]!.next).toBe(UNCONNECTED);
+    const dangling = lintProcedure(d).findings.filter((f) => f.code === 'dangling-branch');
+    expect(dangling.map((f) => f.steps[0]).sort()).toEqual(['coilPrimary', 'sparkSeen']);
+  });
+
+  it('renaming a step id follows every branch and the start to the new id', () => {
+    const d0 = coilCheck();
+    const reading = d0.steps[0]!;
+    const d = applyEdit(d0, { type: 'update-step', id: 'coilPrimary', step: { ...reading, id: 'primaryOhms' } });
+    expect(d.start).toBe('primaryOhms');
+    const shorted = applyEdit(d, { type: 'update-step', id: 'shorted', step: { ...d.steps[2]!, id: 'primaryShorted' } });
+    const r = shorted.steps[0]!;
+    expect(r.kind === 'reading' && r.bands[0]!.next).toBe('primaryShorted');
+    expect(lintProcedure(shorted).errorCount).toBe(0);
+  });
+
+  it('removing the start step moves the start to the first remaining step', () => {
+    const d = applyEdit(doc([task('a', 'b'), finding('b')]), { type: 'remove-steps', ids: ['a'] });
+    expect(d.start).toBe('b');
+  });
+});
+
+describe('toFlow and fromFlow', () => {
+  it('a document survives the trip to React Flow and back, positions included', () => {
+    const d = applyEdit(coilCheck(), { type: 'move-steps', moves: [{ id: 'shorted', position: { x: 120, y: 340 } }] });
+    const { nodes, edges } = toFlow(d);
+    expect(fromFlow(d, nodes, edges)).toEqual(d);
+  });
+
+  it('node data is plain data: it survives JSON unchanged, with no functions in it', () => {
+    const { nodes } = toFlow(coilCheck(), { issues: new Map([['shorted', 'warning']]), path: new Set(['coilPrimary']) });
+    expect(JSON.parse(JSON.stringify(nodes))).toEqual(nodes);
+  });
+
+  it('a handle whose edge was deleted on the canvas comes back unconnected', () => {
+    const d = coilCheck();
+    const { nodes, edges } = toFlow(d);
+    const back = fromFlow(d, nodes, edges.filter((e) => e.id !== 'sparkSeen:answer:yes'));
+    const obs = back.steps[1]!;
+    expect(obs.kind === 'observation' && obs.answers[0]!.next).toBe(UNCONNECTED);
+    expect(toFlow(back).nodes[1]!.data.handles[0]).toEqual({ id: 'answer:yes', label: 'yes', open: true });
+  });
+});
+
+describe('copy and paste', () => {
+  it('pasting into the same procedure gives fresh ids and keeps the branches inside the copy', () => {
+    const d = coilCheck();
+    const pasted = pasteSteps(d, copySteps(d, new Set(['sparkSeen', 'openCoil'])))!;
+    expect(pasted.map((s) => s.id)).toEqual(['sparkSeen1', 'openCoil1']);
+    const obs = pasted[0]!;
+    expect(obs.kind === 'observation' && obs.answers.map((a) => a.next)).toEqual(['openCoil1', UNCONNECTED]);
+    expect(pasted[1]!.position).toEqual({ x: d.steps[3]!.position.x + 40, y: d.steps[3]!.position.y + 40 });
+  });
+
+  it('pasting into another procedure keeps ids that are free there, and anything else is refused', () => {
+    const d = coilCheck();
+    const other = doc([task('prepare')]);
+    expect(pasteSteps(other, copySteps(d, new Set(['shorted'])))!.map((s) => s.id)).toEqual(['shorted']);
+    expect(pasteSteps(other, 'just some text')).toBeNull();
+    expect(pasteSteps(other, JSON.stringify({ format: 'something-else', steps: [] }))).toBeNull();
+  });
+});
+
+describe('differences from the last published version', () => {
+  it('lists added, removed and changed steps by id, ignoring moves on the canvas', () => {
+    const base = coilCheck();
+    let next = applyEdit(base, { type: 'move-steps', moves: [{ id: 'shorted', position: { x: 999, y: 1 } }] });
+    next = applyEdit(next, { type: 'update-step', id: 'openCoil', step: { ...next.steps[3]!, title: 'Open primary winding' } });
+    next = applyEdit(next, { type: 'add-steps', steps: [stepFor(next, 'handoff', { x: 0, y: 0 })] });
+    next = applyEdit(next, { type: 'remove-steps', ids: ['shorted'] });
+    const diff = diffDocuments(base, next);
+    expect(diff.added).toEqual([{ id: 'handoff1', title: 'Hand to a senior technician' }]);
+    expect(diff.removed).toEqual([{ id: 'shorted', title: 'Finding shorted' }]);
+    expect(diff.changed.find((c) => c.id === 'openCoil')?.fields).toEqual(['title']);
+    expect(diff.changed.find((c) => c.id === 'coilPrimary')?.fields).toEqual(['bands']);
+  });
+});
