@@ -1,0 +1,64 @@
+import { queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { Me } from '@shared/schema/auth';
+import type { Area, Role } from '@shared/schema/role-names';
+import { AREA_ROLES, hasAnyRole } from '@shared/schema/role-names';
+import { api, ApiError, setCsrfToken } from './api-client';
+
+/** The signed-in person, or null when signed out. */
+export const meQuery = queryOptions({
+  queryKey: ['auth', 'me'] as const,
+  queryFn: async (): Promise<Me | null> => {
+    try {
+      return await api.get<Me>('/api/auth/me');
+    } catch (e) {
+      if (e instanceof ApiError && e.status === 401) return null;
+      throw e;
+    }
+  },
+  staleTime: 5 * 60_000,
+});
+
+export interface Session {
+  me: Me | null;
+  isLoading: boolean;
+  roles: Role[];
+  shopName: string;
+  can(area: Area): boolean;
+}
+
+export function useSession(): Session {
+  const { data, isLoading } = useQuery(meQuery);
+  const me = data ?? null;
+  const shop = me?.shops.find((s) => s.id === me.currentShopId);
+  const roles = shop?.roles ?? [];
+  return { me, isLoading, roles, shopName: shop?.name ?? '', can: (area) => hasAnyRole(roles, AREA_ROLES[area]) };
+}
+
+export function useSignOut(): () => Promise<void> {
+  const qc = useQueryClient();
+  return async () => {
+    try {
+      await api.post('/api/auth/logout');
+    } finally {
+      setCsrfToken(null);
+      qc.clear();
+      qc.setQueryData(meQuery.queryKey, null);
+    }
+  };
+}
+
+export function useSwitchShop(): (shopId: string) => Promise<void> {
+  const qc = useQueryClient();
+  return async (shopId) => {
+    const me = await api.post<Me>('/api/auth/shop', { shopId });
+    qc.clear();
+    qc.setQueryData(meQuery.queryKey, me);
+  };
+}
+
+/** The first area a person with these roles would want to land in. */
+export function homeFor(roles: Role[]): string {
+  const order: Area[] = ['bench', 'drafting', 'debrief', 'shop'];
+  const area = order.find((a) => hasAnyRole(roles, AREA_ROLES[a]));
+  return area ? `/${area}` : '/no-access';
+}

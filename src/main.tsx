@@ -1,0 +1,14 @@
+import { StrictMode } from 'react';
+import { createRoot } from 'react-dom/client';
+import '@fontsource/source-sans-3/400.css';
+import '@fontsource/source-sans-3/600.css';
+import '@fontsource/source-sans-3/700.css';
+import '@fontsource/source-sans-3/900.css';
+import './styles.css';
+import { AppProvider } from './app/provider';
+
+createRoot(document.getElementById('root')!).render(
+  <StrictMode>
+    <AppProvider />
+  </StrictMode>,
+);

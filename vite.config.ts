@@ -1,0 +1,45 @@
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+import { VitePWA } from 'vite-plugin-pwa';
+import { fileURLToPath } from 'node:url';
+
+const apiPort = process.env.API_PORT ?? '3100';
+
+export default defineConfig({
+  resolve: { alias: { '@shared': fileURLToPath(new URL('./shared', import.meta.url)) } },
+  plugins: [
+    react(),
+    tailwindcss(),
+    VitePWA({
+      registerType: 'autoUpdate',
+      injectRegister: 'script',
+      includeAssets: ['icon.svg'],
+      manifest: {
+        name: 'Sparkwright',
+        short_name: 'Sparkwright',
+        description: 'Guided ignition diagnosis for small-engine and powersports shops',
+        theme_color: '#1d232c',
+        background_color: '#f5f2ea',
+        display: 'standalone',
+        start_url: '/bench',
+        icons: [{ src: '/icon.svg', sizes: 'any', type: 'image/svg+xml', purpose: 'any' }],
+      },
+      workbox: {
+        // the app shell works without signal; the API is never cached by the service worker
+        navigateFallback: '/index.html',
+        navigateFallbackDenylist: [/^\/api\//],
+        globPatterns: ['**/*.{js,css,html,svg,woff2}'],
+        maximumFileSizeToCacheInBytes: 4 * 1024 * 1024,
+      },
+    }),
+  ],
+  build: {
+    manifest: true,
+    sourcemap: false,
+    chunkSizeWarningLimit: 900,
+  },
+  server: {
+    proxy: { '/api': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: false } },
+  },
+});
