@@ -1,0 +1,84 @@
+import { QueryTypes, type Sequelize } from 'sequelize';
+import { upgradeProcedure } from '@shared/schema/upgrade';
+import type { ProcedureDocument, Step } from '@shared/schema/procedure';
+import type { ShopContext } from '../auth/context';
+import { AppError, notFound } from '../lib/errors';
+
+export interface PinnedVersion {
+  id: string;
+  shopId: string;
+  procedureId: string;
+  slug: string;
+  title: string;
+  number: number;
+  document: ProcedureDocument;
+  steps: ReadonlyMap<string, Step>;
+}
+
+export interface PublishedProcedure {
+  procedureId: string; slug: string; title: string; symptom: string; ignitionSystem: string;
+  versionId: string; number: number; publishedAt: string | null;
+}
+
+// Published and retired versions never change, so a parsed document can be kept for the life of
+// the process; this keeps the step endpoint from reading a large JSONB document per request.
+const pinned = new Map<string, PinnedVersion>();
+const MAX_PINNED = 200;
+
+function remember(v: PinnedVersion): PinnedVersion {
+  if (pinned.size >= MAX_PINNED) pinned.delete(pinned.keys().next().value!);
+  pinned.set(v.id, v);
+  return v;
+}
+
+/** A published (or retired) version of this shop, parsed and indexed by step id. */
+export async function loadPinnedVersion(sequelize: Sequelize, shopId: string, versionId: string): Promise<PinnedVersion> {
+  const hit = pinned.get(versionId);
+  if (hit && hit.shopId === shopId) return hit;
+  const rows = await sequelize.query<{ id: string; shop_id: string; procedure_id: string; slug: string; title: string; number: number; document: unknown }>(
+    `SELECT v.id, v.shop_id, v.procedure_id, p.slug, p.title, v.number, v.document
+       FROM procedure_versions v JOIN procedures p ON p.id = v.procedure_id
+      WHERE v.id = :versionId AND v.shop_id = :shopId AND v.status IN ('published', 'retired')`,
+    { replacements: { versionId, shopId }, type: QueryTypes.SELECT },
+  );
+  const row = rows[0];
+  if (!row) throw notFound('That procedure version');
+  const up = upgradeProcedure(row.document);
+  if (!up.ok) throw new AppError(500, 'bad_document', `The procedure version cannot be read: ${up.message}`);
+  return remember({
+    id: row.id, shopId: row.shop_id, procedureId: row.procedure_id, slug: row.slug, title: row.title, number: row.number,
+    document: up.document, steps: new Map(up.document.steps.map((s) => [s.id, s])),
+  });
+}
+
+/** The latest published version of each procedure, filtered by symptom and ignition system. */
+export async function listPublished(sequelize: Sequelize, ctx: ShopContext, q: { symptom?: string | undefined; ignitionSystem?: string | undefined }): Promise<PublishedProcedure[]> {
+  const rows = await sequelize.query<{ procedure_id: string; slug: string; title: string; symptom: string; ignition_system: string; version_id: string; number: number; published_at: Date | null }>(
+    `SELECT DISTINCT ON (p.id) p.id AS procedure_id, p.slug, p.title, p.symptom, p.ignition_system,
+            v.id AS version_id, v.number, v.published_at
+       FROM procedures p JOIN procedure_versions v ON v.procedure_id = p.id AND v.status = 'published'
+      WHERE p.shop_id = :shopId AND p.archived_at IS NULL
+        AND (:symptom = '' OR p.symptom ILIKE '%' || :symptom || '%' OR p.title ILIKE '%' || :symptom || '%')
+        AND (:ignition = '' OR p.ignition_system = :ignition)
+      ORDER BY p.id, v.number DESC`,
+    { replacements: { shopId: ctx.shopId, symptom: q.symptom ?? '', ignition: q.ignitionSystem ?? '' }, type: QueryTypes.SELECT },
+  );
+  return rows
+    .map((r) => ({
+      procedureId: r.procedure_id, slug: r.slug, title: r.title, symptom: r.symptom, ignitionSystem: r.ignition_system,
+      versionId: r.version_id, number: r.number, publishedAt: r.published_at ? new Date(r.published_at).toISOString() : null,
+    }))
+    .sort((a, b) => a.title.localeCompare(b.title));
+}
+
+/** The version a phone caches to walk offline: the latest published one for a slug, or a pinned id. */
+export async function getVersionForBench(sequelize: Sequelize, ctx: ShopContext, ref: { slug?: string; versionId?: string }) {
+  let versionId = ref.versionId;
+  if (!versionId) {
+    const all = await listPublished(sequelize, ctx, {});
+    versionId = all.find((p) => p.slug === ref.slug)?.versionId;
+    if (!versionId) throw notFound('A published procedure with that name');
+  }
+  const v = await loadPinnedVersion(sequelize, ctx.shopId, versionId);
+  return { id: v.id, procedureId: v.procedureId, slug: v.slug, title: v.title, number: v.number, document: v.document };
+}

@@ -1,0 +1,139 @@
+import { createHash } from 'node:crypto';
+import { QueryTypes, type Transaction } from 'sequelize';
+import type { AppDeps } from '../deps';
+import type { ShopContext } from '../auth/context';
+import { AppError, notFound } from '../lib/errors';
+import { parseInput } from '../lib/validate';
+import { loadPinnedVersion } from './bench.service';
+import { decideContext, decideStep, type PathRow } from './diagnosis-decide';
+import { FindingOutcomeInput, HandoffOutcomeInput, type StepInput } from './diagnosis.schema';
+import { notifyHandoff } from './report.service';
+
+export interface StepResult {
+  id: string; seq: number; stepId: string; value: number | null; verdict: string | null;
+  bandId: string | null; answerId: string | null; next: string | null; status: string; duplicate: boolean;
+}
+
+interface Head {
+  status: string; technician_id: string; procedure_version_id: string; max_seq: number;
+  meter: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] | null;
+  path: PathRow[];
+  existing: { diagnosis_id: string; payload_hash: string; seq: number; step_id: string; value: number | null; verdict: string | null; band_id: string | null; answer_id: string | null; next_step_id: string | null } | null;
+}
+
+/** sha256 over the input with sorted keys, so a retried message hashes the same. */
+export function payloadHash(input: unknown): string {
+  const canonical = JSON.stringify(input, (_k, v: unknown) =>
+    v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).sort(([a], [b]) => a.localeCompare(b))) : v);
+  return createHash('sha256').update(canonical).digest('hex');
+}
+
+// One statement reads everything the decision needs and locks the diagnosis, so steps of one
+// diagnosis are appended one at a time (seq stays dense) while other diagnoses run in parallel.
+const HEAD_SQL = `
+  SELECT d.status, d.technician_id, d.procedure_version_id, m.spec->'entries' AS meter,
+    (SELECT coalesce(max(seq), 0) FROM diagnosis_steps WHERE diagnosis_id = d.id) AS max_seq,
+    (SELECT coalesce(json_agg(json_build_object('id', s.id, 'seq', s.seq, 'stepId', s.step_id, 'value', s.value, 'next', s.next_step_id) ORDER BY s.seq), '[]')
+       FROM diagnosis_steps s WHERE s.diagnosis_id = d.id AND NOT s.superseded) AS path,
+    (SELECT row_to_json(x) FROM (SELECT diagnosis_id, payload_hash, seq, step_id, value, verdict, band_id, answer_id, next_step_id
+       FROM diagnosis_steps WHERE id = :rowId) x) AS existing
+  FROM diagnoses d LEFT JOIN meters m ON m.id = d.meter_id
+  WHERE d.id = :diagnosisId AND d.shop_id = :shopId
+  FOR UPDATE OF d`;
+
+// Supersedes the abandoned tail of the path, stores the step once and touches the diagnosis.
+const WRITE_SQL = `
+  WITH sup AS (
+    UPDATE diagnosis_steps SET superseded = true
+     WHERE diagnosis_id = :diagnosisId AND :fromSeq::int IS NOT NULL AND seq >= :fromSeq::int AND NOT superseded
+  ), ins AS (
+    INSERT INTO diagnosis_steps (id, shop_id, diagnosis_id, seq, step_id, kind, shown, entered, value, unit, verdict,
+                                 band_id, answer_id, note, started_at, answered_at, payload_hash, next_step_id)
+    VALUES (:id, :shopId, :diagnosisId, :seq, :stepId, :kind, :shown::jsonb, :entered, :value, :unit, :verdict,
+            :bandId, :answerId, :note, :startedAt, :answeredAt, :hash, :next)
+    ON CONFLICT (id) DO NOTHING
+  )
+  UPDATE diagnoses SET last_activity_at = now(), updated_at = now(),
+         status = coalesce(:endStatus, status), ending_step_id = coalesce(:endingStepId, ending_step_id),
+         outcome = coalesce(:outcome::jsonb, outcome), ended_at = CASE WHEN :endStatus::text IS NULL THEN ended_at ELSE :answeredAt::timestamptz END
+   WHERE id = :diagnosisId`;
+
+function fromExisting(e: NonNullable<Head['existing']>, id: string, status: string): StepResult {
+  return { id, seq: e.seq, stepId: e.step_id, value: e.value, verdict: e.verdict, bandId: e.band_id, answerId: e.answer_id, next: e.next_step_id, status, duplicate: true };
+}
+
+function checkActive(head: Head): void {
+  if (head.status !== 'active') {
+    throw new AppError(409, 'diagnosis_ended', 'This diagnosis has already ended, so no more steps can be added. Start a new diagnosis for further work.');
+  }
+}
+
+/** Where the new step must be: the start, or the step the `after` row routed to. */
+function expectedPlace(path: readonly PathRow[], after: string | null, start: string): { keep: PathRow[]; expected: string | null } {
+  if (after === null) return { keep: [], expected: start };
+  const i = path.findIndex((r) => r.id === after);
+  if (i < 0) {
+    throw new AppError(422, 'not_on_path', 'The step this answer follows is not on the current path of the diagnosis (it was changed or never sent). Reload the diagnosis and answer again.');
+  }
+  return { keep: path.slice(0, i + 1), expected: path[i]!.next };
+}
+
+function outcomeFor(kind: string, input: StepInput): { endStatus: string | null; outcome: string | null } {
+  if (kind === 'finding') return { endStatus: 'finished', outcome: JSON.stringify(parseInput(FindingOutcomeInput, input.outcome ?? {}, 'The finding')) };
+  if (kind === 'handoff') return { endStatus: 'handed_off', outcome: JSON.stringify(parseInput(HandoffOutcomeInput, input.outcome ?? {}, 'The hand-off')) };
+  return { endStatus: null, outcome: null };
+}
+
+async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput, head: Head, hash: string, transaction: Transaction) {
+  const version = await loadPinnedVersion(deps.sequelize, ctx.shopId, head.procedure_version_id);
+  const step = version.steps.get(input.stepId);
+  if (!step) {
+    throw new AppError(422, 'unknown_step', `Step "${input.stepId}" is not part of version ${version.number} of "${version.title}", which this diagnosis follows. Reload the diagnosis.`);
+  }
+  const { keep, expected } = expectedPlace(head.path, input.after, version.document.start);
+  if (expected !== input.stepId) {
+    throw new AppError(422, 'branch_not_allowed', `Version ${version.number} of "${version.title}" does not lead to "${input.stepId}" from there${expected ? `; the next step is "${expected}"` : ''}. Reload the diagnosis.`);
+  }
+  const decided = decideStep(step, input, decideContext(keep, version.steps, head.meter ?? []));
+  const { endStatus, outcome } = outcomeFor(step.kind, input);
+  const seq = Number(head.max_seq) + 1;
+  await deps.sequelize.query(WRITE_SQL, {
+    transaction,
+    replacements: {
+      id: input.id, shopId: ctx.shopId, diagnosisId, seq, stepId: step.id, kind: step.kind, shown: JSON.stringify(decided.shown),
+      entered: decided.entered, value: decided.value, unit: decided.unit, verdict: decided.verdict, bandId: decided.bandId,
+      answerId: decided.answerId, note: input.note, startedAt: input.startedAt, answeredAt: input.answeredAt, hash, next: decided.next,
+      fromSeq: keep.length < head.path.length ? head.path[keep.length]!.seq : null, endStatus, endingStepId: endStatus ? step.id : null, outcome,
+    },
+  });
+  const result: StepResult = {
+    id: input.id, seq, stepId: step.id, value: decided.value, verdict: decided.verdict, bandId: decided.bandId,
+    answerId: decided.answerId, next: decided.next, status: endStatus ?? 'active', duplicate: false,
+  };
+  return { result, handoff: step.kind === 'handoff' };
+}
+
+/**
+ * Records one answered step: re-checked against the pinned version, stored exactly once (the
+ * phone's id is the primary key), earlier answers after `after` marked superseded. Two statements
+ * inside one transaction; the benchmark and a query-count test hold it to that.
+ */
+export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput): Promise<StepResult> {
+  const hash = payloadHash(input);
+  const out = await deps.sequelize.transaction(async (transaction) => {
+    const [head] = await deps.sequelize.query<Head>(HEAD_SQL, { transaction, type: QueryTypes.SELECT, replacements: { diagnosisId, shopId: ctx.shopId, rowId: input.id } });
+    if (!head) throw notFound('That diagnosis');
+    // Another technician's diagnosis is not theirs to read either, so it does not exist for them.
+    if (head.technician_id !== ctx.userId && !ctx.roles.includes('lead')) throw notFound('That diagnosis');
+    if (head.existing) {
+      if (head.existing.diagnosis_id !== diagnosisId || head.existing.payload_hash !== hash) {
+        throw new AppError(422, 'id_reused', 'A different step was already stored with this id. The app makes a new id per answer; reload the diagnosis and answer again.');
+      }
+      return { result: fromExisting(head.existing, input.id, head.status), handoff: false };
+    }
+    checkActive(head);
+    return decideAndWrite(deps, ctx, diagnosisId, input, head, hash, transaction);
+  });
+  if (out.handoff) await notifyHandoff(deps, ctx, diagnosisId);
+  return out.result;
+}

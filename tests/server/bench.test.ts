@@ -1,0 +1,216 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, type Client } from './harness';
+import { publishBenchProcedure, startBody, stepBody, type BenchWorld } from './bench-fixtures';
+import { CoachingNote, Diagnosis, DiagnosisStep, User } from '../../server/models';
+import { markAbandoned } from '../../server/services/housekeeping';
+
+let env: TestEnv;
+let tech: Client;
+let world: BenchWorld;
+
+beforeAll(async () => {
+  env = await startTestApp();
+  world = await publishBenchProcedure();
+  tech = await signInAs(env.app, 'tech');
+});
+afterAll(async () => env?.close());
+
+async function start(client = tech): Promise<string> {
+  const body = startBody(world);
+  const res = await client.post('/api/diagnoses', body);
+  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  return body.id;
+}
+
+/** Sends a step and expects it stored; returns its id for the next `after`. */
+async function step(id: string, stepId: string, after: string | null, extra: Record<string, unknown> = {}) {
+  const res = await tech.post(`/api/diagnoses/${id}/steps`, stepBody(stepId, after, extra));
+  expect(res.status, JSON.stringify(res.body)).toBe(201);
+  return res.body as { id: string; next: string | null; verdict: string | null; value: number | null; status: string; seq: number };
+}
+
+describe('starting a diagnosis', () => {
+  it('lists the published procedure filtered by symptom and ignition system', async () => {
+    const all = await tech.get('/api/bench/procedures?symptom=spark&ignitionSystem=magneto-cdi').expect(200);
+    expect(all.body.map((p: { slug: string }) => p.slug)).toContain('bench-test');
+    const none = await tech.get('/api/bench/procedures?ignitionSystem=battery-inductive').expect(200);
+    expect(none.body.map((p: { slug: string }) => p.slug)).not.toContain('bench-test');
+    const v = await tech.get('/api/bench/procedures/bench-test').expect(200);
+    expect(v.body.document.start).toBe('killLead');
+  });
+
+  it('starts once when the phone sends the same start twice', async () => {
+    const body = startBody(world);
+    await tech.post('/api/diagnoses', body).expect(201);
+    await tech.post('/api/diagnoses', body).expect(200);
+    expect(await Diagnosis.count({ where: { id: body.id } })).toBe(1);
+    const mine = await tech.get('/api/diagnoses?status=active').expect(200);
+    expect(mine.body.map((d: { id: string }) => d.id)).toContain(body.id);
+  });
+
+  it('refuses a machine of another shop as not found', async () => {
+    const res = await tech.post('/api/diagnoses', { ...startBody(world), vehicleId: randomUUID() });
+    expect(res.status).toBe(404);
+    expectEnvelope(res.body);
+  });
+});
+
+describe('stepping through the pinned version', () => {
+  it('walks to a finding with readings decided on the server and keeps the complete record', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    expect(a.next).toBe('sparkTest');
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    // 0,15k with a decimal comma is 150 Ω: within 100–200 Ω (limits invented for the test).
+    const c = await step(id, 'exciter', b.id, { entered: '0,15k' });
+    expect(c).toMatchObject({ value: 150, verdict: 'within', next: 'pulser' });
+    // 120 Ω with 0.4 Ω test leads nulled is 119.6 Ω.
+    const d = await step(id, 'pulser', c.id, { entered: '120', leadEntered: '0.4' });
+    expect(d.value).toBeCloseTo(119.6, 6);
+    const e = await step(id, 'combined', d.id);
+    // parallel(150, 119.6) = 150·119.6 / 269.6
+    expect(e.value).toBeCloseTo((150 * 119.6) / 269.6, 6);
+    const f = await step(id, 'cdiFinding', e.id, {
+      outcome: { partsFitted: [{ name: 'CDI unit', lot: 'L2611' }], finalCheck: { spark: true, runs: true, stops: true }, labourMinutes: 35 },
+    });
+    expect(f.status).toBe('finished');
+    const rec = await tech.get(`/api/diagnoses/${id}`).expect(200);
+    expect(rec.body.status).toBe('finished');
+    expect(rec.body.endingStepId).toBe('cdiFinding');
+    expect(rec.body.outcome.partsFitted[0]).toEqual({ name: 'CDI unit', lot: 'L2611' });
+    expect(rec.body.steps.map((s: { stepId: string }) => s.stepId)).toEqual(['killLead', 'sparkTest', 'exciter', 'pulser', 'combined', 'cdiFinding']);
+    expect(rec.body.steps[2]).toMatchObject({ entered: '0,15k', unit: 'Ω', verdict: 'within', superseded: false });
+    expect(rec.body.steps[2].shown.limitsText).toMatch(/100.*200/);
+    const late = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('killLead', null));
+    expect(late.status).toBe(409);
+  });
+
+  it('stores a step sent twice as one row, and refuses the same id with another payload', async () => {
+    const id = await start();
+    const body = stepBody('killLead', null);
+    await tech.post(`/api/diagnoses/${id}/steps`, body).expect(201);
+    const again = await tech.post(`/api/diagnoses/${id}/steps`, body).expect(200);
+    expect(again.body.duplicate).toBe(true);
+    expect(await DiagnosisStep.count({ where: { diagnosisId: id } })).toBe(1);
+    const changed = await tech.post(`/api/diagnoses/${id}/steps`, { ...body, note: 'different' });
+    expect(changed.status).toBe(422);
+    expect(expectEnvelope(changed.body).code).toBe('id_reused');
+  });
+
+  it('refuses a step that is not in the pinned version, and a branch the version does not allow', async () => {
+    const id = await start();
+    const unknown = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('inventedStep', null));
+    expect(unknown.status).toBe(422);
+    expect(expectEnvelope(unknown.body).message).toMatch(/not part of version 1/);
+    const a = await step(id, 'killLead', null);
+    const skip = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('exciter', a.id, { entered: '150' }));
+    expect(skip.status).toBe(422);
+    expect(expectEnvelope(skip.body).code).toBe('branch_not_allowed');
+    const badAnswer = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('sparkTest', a.id, { answerId: 'purple' }));
+    expect(badAnswer.status).toBe(400);
+    const badReading = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    const unreadable = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('exciter', badReading.id, { entered: '1,200' }));
+    expect(unreadable.status).toBe(400);
+    expect(expectEnvelope(unreadable.body).message).toMatch(/1\.2|1200/);
+    expect(await DiagnosisStep.count({ where: { diagnosisId: id } })).toBe(2);
+  });
+
+  it('going back to change an answer keeps the old rows, marked superseded', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    await step(id, 'exciter', b.id, { entered: '4K7' }); // 4.7 kΩ: above the limits
+    const redo = await step(id, 'sparkTest', a.id, { answerId: 'strong' });
+    expect(redo.next).toBe('plugFinding');
+    const rec = await tech.get(`/api/diagnoses/${id}`).expect(200);
+    const rows = rec.body.steps as { stepId: string; superseded: boolean; seq: number; verdict: string | null }[];
+    expect(rows.map((r) => [r.seq, r.stepId, r.superseded])).toEqual([
+      [1, 'killLead', false], [2, 'sparkTest', true], [3, 'exciter', true], [4, 'sparkTest', false],
+    ]);
+    expect(rows[2]!.verdict).toBe('above');
+  });
+
+  it('records one step in one transaction of at most four statements', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    const sql: string[] = [];
+    const seq = env.runtime.deps.sequelize;
+    const before = seq.options.logging;
+    seq.options.logging = (s: string) => { sql.push(s); };
+    try {
+      await step(id, 'exciter', b.id, { entered: '150' });
+    } finally {
+      seq.options.logging = before;
+    }
+    // Sequelize tags statements inside a transaction with its id: START, read-and-lock, write, COMMIT.
+    const inTransaction = sql.filter((s) => /^Executing \([0-9a-f-]{36}\)/.test(s));
+    expect(inTransaction.length, sql.join('\n')).toBeLessThanOrEqual(4);
+    // Outside it only the session user and the shop membership are read (passport, requireShop).
+    expect(sql.length - inTransaction.length, sql.join('\n')).toBeLessThanOrEqual(2);
+  });
+});
+
+describe('hand-off, abandon and coaching notes', () => {
+  it('a hand-off ends the diagnosis and e-mails the shop leads', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'weak' });
+    expect(b.next).toBe('senior');
+    await step(id, 'senior', b.id, { outcome: { reason: 'Weak orange spark, suspect the CDI' } });
+    const mail = await env.smtp.waitFor((m) => m.subject.startsWith('Hand-off') && m.to.includes('lead@larkspur.test'));
+    expect(mail.text).toContain('Weak orange spark');
+    expect((await Diagnosis.findByPk(id))!.status).toBe('handed_off');
+  });
+
+  it('a hand-off without a reason is refused and nothing is stored', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'weak' });
+    const res = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('senior', b.id, { outcome: { reason: '' } }));
+    expect(res.status).toBe(400);
+    expect(await DiagnosisStep.count({ where: { diagnosisId: id } })).toBe(2);
+  });
+
+  it('marks a diagnosis left past the shop abandon time as abandoned, and leaves a fresh one', async () => {
+    const old = await start();
+    const fresh = await start();
+    await env.runtime.deps.sequelize.query(`UPDATE diagnoses SET last_activity_at = now() - interval '25 hours' WHERE id = :old`, { replacements: { old } });
+    const count = await markAbandoned(env.runtime.deps);
+    expect((await Diagnosis.findByPk(old))!.status).toBe('abandoned');
+    expect((await Diagnosis.findByPk(fresh))!.status).toBe('active');
+    expect((await tech.get('/api/diagnoses?status=active').expect(200)).body.map((d: { id: string }) => d.id)).not.toContain(old);
+    // markAbandoned reports how many it marked (for the housekeeping log).
+    expect(count).toBe(1);
+  });
+
+  it('shows trainers coaching notes to the technician, who cannot write them', async () => {
+    const id = await start();
+    const trainer = (await User.findOne({ where: { email: 'trainer@larkspur.test' } }))!;
+    await CoachingNote.create({ shopId: world.shopId, diagnosisId: id, stepId: null, authorId: trainer.id, body: 'Check the kill switch first next time.' });
+    const rec = await tech.get(`/api/diagnoses/${id}`).expect(200);
+    expect(rec.body.coachingNotes[0]).toMatchObject({ body: 'Check the kill switch first next time.', authorName: 'Jordan Trainer' });
+    expect((await tech.post(`/api/diagnoses/${id}/coaching-notes`, { body: 'x' })).status).toBe(404);
+  });
+});
+
+describe('shops and owners', () => {
+  it('a technician of another shop can neither see nor write the diagnosis (404)', async () => {
+    const id = await start();
+    const other = await otherShopMember(env, ['technician', 'lead']);
+    expect((await other.get(`/api/diagnoses/${id}`)).status).toBe(404);
+    const write = await other.post(`/api/diagnoses/${id}/steps`, stepBody('killLead', null));
+    expect(write.status).toBe(404);
+    expectEnvelope(write.body);
+    expect((await other.post(`/api/diagnoses/${id}/report`, {})).status).toBe(404);
+    expect(await DiagnosisStep.count({ where: { diagnosisId: id } })).toBe(0);
+  });
+
+  it('a trainer may read a diagnosis but not record steps in it', async () => {
+    const id = await start();
+    const trainer = await signInAs(env.app, 'trainer');
+    await trainer.get(`/api/diagnoses/${id}`).expect(200);
+    expect((await trainer.post(`/api/diagnoses/${id}/steps`, stepBody('killLead', null))).status).toBe(403);
+  });
+});
