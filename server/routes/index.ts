@@ -5,10 +5,12 @@ import { authRoutes } from './auth.routes';
 import { shopRoutes } from './shop.routes';
 import { vehicleRoutes } from './vehicle.routes';
 import { healthRoutes } from './health.routes';
+import { engineRoutes } from './engine.routes';
 import { benchRoutes } from './bench.routes';
 import { diagnosisRoutes } from './diagnosis.routes';
 import { attachmentRoutes } from './attachment.routes';
 import { procedureRoutes } from './procedure.routes';
+import { debriefRoutes } from './debrief.routes';
 
 /**
  * Mounts every API router. Each feature adds one line here; everything below requireShop has
@@ -18,6 +20,7 @@ export function apiRouter(deps: AppDeps, csrfToken: (req: Request, overwrite?: b
   const api = Router();
   api.use('/health', healthRoutes(deps));
   api.use('/auth', authRoutes(deps, csrfToken));
+  api.use(engineRoutes());
 
   const shop = Router();
   shop.use(requireShop);
@@ -27,6 +30,7 @@ export function apiRouter(deps: AppDeps, csrfToken: (req: Request, overwrite?: b
   shop.use('/diagnoses', diagnosisRoutes(deps));
   shop.use('/attachments', attachmentRoutes(deps));
   shop.use('/procedures', procedureRoutes(deps));
+  shop.use('/debrief', debriefRoutes(deps));
   api.use(shop);
   return api;
 }

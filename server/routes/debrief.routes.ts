@@ -1,0 +1,56 @@
+import { Router } from 'express';
+import type { AppDeps } from '../deps';
+import { ctxOf, requireRole } from '../auth/context';
+import { parseInput } from '../lib/validate';
+import { idParam } from '../lib/params';
+import {
+  advisorDraftBodySchema, analyticsQuerySchema, coachingNoteBodySchema, diagnosisListQuerySchema,
+} from '@shared/stats/debrief-schema';
+import { analyticsScope, sqlOf } from '../services/debrief-scope';
+import { diagnosesCsv, listDiagnoses } from '../services/debrief-diagnoses.service';
+import { replayDiagnosis } from '../services/debrief-replay.service';
+import { addCoachingNote } from '../services/coaching.service';
+import { findingsAnalytics, readingsAnalytics, stepsAnalytics, timesAnalytics } from '../services/debrief-analytics.service';
+import { adviseVersion, draftFromAdvice } from '../services/debrief-advisor.service';
+import { debriefProcedures } from '../services/debrief-procedures.service';
+
+/** Debrief: trainers and leads read the shop's diagnoses and analytics; technicians their own diagnoses. */
+export function debriefRoutes(deps: AppDeps): Router {
+  const r = Router();
+  const sql = sqlOf(deps);
+  const readers = requireRole('trainer', 'lead', 'technician');
+  const analysts = requireRole('trainer', 'lead');
+
+  r.get('/procedures', analysts, async (req, res) => { res.json(await debriefProcedures(sql, ctxOf(req))); });
+  r.get('/diagnoses', readers, async (req, res) => {
+    res.json(await listDiagnoses(sql, ctxOf(req), parseInput(diagnosisListQuerySchema, req.query, 'The filter')));
+  });
+  r.get('/diagnoses.csv', readers, async (req, res) => {
+    const csv = await diagnosesCsv(sql, ctxOf(req), parseInput(diagnosisListQuerySchema, req.query, 'The filter'));
+    res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+    res.setHeader('Content-Disposition', `attachment; filename="diagnoses-${new Date().toISOString().slice(0, 10)}.csv"`);
+    res.send(csv);
+  });
+  r.get('/diagnoses/:id', readers, async (req, res) => {
+    res.json(await replayDiagnosis(sql, ctxOf(req), idParam(req, 'id', 'That diagnosis')));
+  });
+  r.post('/diagnoses/:id/coaching-notes', analysts, async (req, res) => {
+    const body = parseInput(coachingNoteBodySchema, req.body, 'The coaching note');
+    res.status(201).json(await addCoachingNote(sql, ctxOf(req), idParam(req, 'id', 'That diagnosis'), body));
+  });
+
+  const analytics = (compute: (s: Awaited<ReturnType<typeof analyticsScope>>) => Promise<unknown>) =>
+    async (req: Parameters<Parameters<typeof r.get>[1]>[0], res: Parameters<Parameters<typeof r.get>[1]>[1]) => {
+      const scope = await analyticsScope(sql, ctxOf(req), parseInput(analyticsQuerySchema, req.query, 'The analytics filter'));
+      res.json(await compute(scope));
+    };
+  r.get('/analytics/steps', analysts, analytics((s) => stepsAnalytics(sql, s)));
+  r.get('/analytics/findings', analysts, analytics((s) => findingsAnalytics(sql, s)));
+  r.get('/analytics/readings', analysts, analytics((s) => readingsAnalytics(sql, s)));
+  r.get('/analytics/times', analysts, analytics((s) => timesAnalytics(sql, s)));
+  r.get('/analytics/advisor', analysts, analytics((s) => adviseVersion(sql, s)));
+  r.post('/advisor/drafts', requireRole('lead'), async (req, res) => {
+    res.status(201).json(await draftFromAdvice(deps, sql, ctxOf(req), parseInput(advisorDraftBodySchema, req.body, 'The proposal')));
+  });
+  return r;
+}

@@ -1,0 +1,137 @@
+import { QUANTILE_DEFINITION } from '@shared/stats/quantile';
+import { binSpec } from '@shared/stats/histogram';
+import { resolveLimits } from '@shared/measure/verdict';
+import type {
+  BranchFigure, DiagnosisStatus, FindingsAnalytics, Quart, ReadingFigure, ReadingsAnalytics, StepFigure, StepsAnalytics, TimesAnalytics,
+} from '@shared/stats/debrief-schema';
+import { SCOPED, comebackDays, num, numOrNull, scopeBinds, type Scope, type Sql } from './debrief-scope';
+
+// Debrief analytics, all aggregated in PostgreSQL over the scoped diagnoses (see SCOPED): only
+// counts, shares and quantiles come back to Node, never the rows themselves.
+// Quantiles: percentile_cont is the Hyndman & Fan (1996) type 7 sample quantile.
+
+const STEPS_ON_PATH = `s AS (
+  SELECT ds.diagnosis_id, ds.step_id, ds.band_id, ds.answer_id, ds.value, ds.verdict, ds.kind, ds.started_at, ds.answered_at
+  FROM diagnosis_steps ds JOIN d ON d.id = ds.diagnosis_id WHERE NOT ds.superseded)`;
+
+const quart = (r: Record<string, unknown>): Quart => {
+  const q = (r.q as (number | string | null)[] | null) ?? [null, null, null];
+  return { n: num(r.n), q1: numOrNull(q[0]), median: numOrNull(q[1]), q3: numOrNull(q[2]) };
+};
+
+/** The branch handle a recorded answer took (`band:<id>`, `answer:<id>`, `borderline` or `next`). */
+export function handleOf(bandId: unknown, answerId: unknown): string {
+  if (typeof answerId === 'string') return `answer:${answerId}`;
+  if (bandId === 'borderline') return 'borderline';
+  if (typeof bandId === 'string') return `band:${bandId}`;
+  return 'next';
+}
+
+/** Per step: how many diagnoses reached it and how many ended there; per branch: the share taken. */
+export async function stepsAnalytics(sql: Sql, scope: Scope): Promise<StepsAnalytics> {
+  const b = scopeBinds(scope);
+  const [reached, ended, branches, [total]] = await Promise.all([
+    sql(`WITH ${SCOPED}, ${STEPS_ON_PATH}
+      SELECT step_id, count(*) AS n FROM (
+        SELECT diagnosis_id, step_id FROM s UNION SELECT id, ending_step_id FROM d WHERE ending_step_id IS NOT NULL) x
+      GROUP BY step_id`, b),
+    sql(`WITH ${SCOPED} SELECT ending_step_id AS step_id, status, count(*) AS n FROM d
+      WHERE ending_step_id IS NOT NULL AND status <> 'active' GROUP BY 1, 2`, b),
+    sql(`WITH ${SCOPED}, ${STEPS_ON_PATH} SELECT step_id, band_id, answer_id, count(*) AS n FROM s GROUP BY 1, 2, 3`, b),
+    sql(`WITH ${SCOPED} SELECT count(*) AS n FROM d`, b),
+  ]);
+  const figures = new Map<string, StepFigure>();
+  const fig = (id: string) => figures.get(id) ?? figures.set(id, { stepId: id, reached: 0, finished: 0, handedOff: 0, abandoned: 0, active: 0 }).get(id)!;
+  for (const r of reached) fig(String(r.step_id)).reached = num(r.n);
+  const key: Record<string, keyof StepFigure> = { finished: 'finished', handed_off: 'handedOff', abandoned: 'abandoned' };
+  for (const r of ended) (fig(String(r.step_id)) as unknown as Record<string, number>)[key[String(r.status)]!] = num(r.n);
+  const perStep = new Map<string, number>();
+  for (const r of branches) perStep.set(String(r.step_id), (perStep.get(String(r.step_id)) ?? 0) + num(r.n));
+  const branchFigures: BranchFigure[] = branches.map((r) => ({
+    from: String(r.step_id), handle: handleOf(r.band_id, r.answer_id), count: num(r.n), share: num(r.n) / perStep.get(String(r.step_id))!,
+  }));
+  return { diagnoses: num(total?.n), steps: [...figures.values()], branches: branchFigures };
+}
+
+/** Share of each ending, and first-time fix: finished with no comeback of the vehicle within N days. */
+export async function findingsAnalytics(sql: Sql, scope: Scope): Promise<FindingsAnalytics> {
+  const days = await comebackDays(sql, scope.shopId);
+  const b = scopeBinds(scope);
+  const [endings, [ftf]] = await Promise.all([
+    sql(`WITH ${SCOPED} SELECT ending_step_id AS step_id, status, count(*) AS n FROM d
+      WHERE status <> 'active' AND ending_step_id IS NOT NULL GROUP BY 1, 2 ORDER BY n DESC, 1`, b),
+    sql(`WITH ${SCOPED} SELECT count(*) AS finished, count(*) FILTER (WHERE EXISTS (
+        SELECT 1 FROM diagnoses c WHERE c.shop_id = $1 AND c.vehicle_id = d.vehicle_id
+          AND c.started_at > d.ended_at AND c.started_at <= d.ended_at + make_interval(days => $5::int))) AS comebacks
+      FROM d WHERE status = 'finished'`, [...b, days]),
+  ]);
+  const ended = endings.reduce((a, r) => a + num(r.n), 0);
+  const finished = num(ftf?.finished);
+  const comebacks = num(ftf?.comebacks);
+  return {
+    ended,
+    endings: endings.map((r) => ({ stepId: String(r.step_id), status: r.status as DiagnosisStatus, count: num(r.n), share: num(r.n) / ended })),
+    firstTimeFix: { finished, comebacks, rate: finished ? (finished - comebacks) / finished : null, comebackDays: days },
+  };
+}
+
+/** Per Reading step: a histogram against the limits, the borderline share, and values by technician. */
+export async function readingsAnalytics(sql: Sql, scope: Scope): Promise<ReadingsAnalytics> {
+  const b = scopeBinds(scope);
+  const readings = `r AS (SELECT s.step_id, s.value, s.verdict, d.technician_id FROM d JOIN diagnosis_steps s ON s.diagnosis_id = d.id
+    WHERE NOT s.superseded AND s.kind = 'reading' AND s.value IS NOT NULL)`;
+  const byTech = await sql(`WITH ${SCOPED}, ${readings}
+    SELECT r.step_id, r.technician_id, u.name, count(*) AS n, min(value) AS lo, max(value) AS hi,
+      count(*) FILTER (WHERE verdict IN ('borderline-low', 'borderline-high')) AS borderline,
+      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY value) AS q
+    FROM r JOIN users u ON u.id = r.technician_id GROUP BY 1, 2, 3 ORDER BY 1, 3`, b);
+  const steps = new Map(scope.doc.steps.map((s) => [s.id, s] as const));
+  const specs = new Map<string, ReturnType<typeof binSpec>>();
+  for (const r of byTech) {
+    const id = String(r.step_id);
+    const prev = specs.get(id);
+    const lo = Math.min(num(r.lo), prev?.lo ?? Infinity);
+    const hi = Math.max(num(r.hi), prev?.hi ?? -Infinity);
+    const step = steps.get(id);
+    const limits = step?.kind === 'reading' && step.limits ? resolveLimits(step.limits) : {};
+    specs.set(id, binSpec({ min: lo, max: hi }, limits, 20));
+  }
+  const ids = [...specs.keys()];
+  const bins = ids.length ? await sql(`WITH ${SCOPED}, ${readings}, spec AS (
+      SELECT * FROM unnest($5::text[], $6::float8[], $7::float8[], $8::int[]) AS t(step_id, lo, hi, cnt))
+    SELECT r.step_id, LEAST(GREATEST(width_bucket(r.value, spec.lo, spec.hi, spec.cnt), 1), spec.cnt) AS bin, count(*) AS n
+    FROM r JOIN spec ON spec.step_id = r.step_id GROUP BY 1, 2`,
+  [...b, ids, ids.map((i) => specs.get(i)!.lo), ids.map((i) => specs.get(i)!.hi), ids.map((i) => specs.get(i)!.count)]) : [];
+  const out: ReadingFigure[] = ids.map((id) => {
+    const spec = specs.get(id)!;
+    const w = (spec.hi - spec.lo) / spec.count;
+    const counts = new Array<number>(spec.count).fill(0);
+    for (const r of bins) if (r.step_id === id) counts[num(r.bin) - 1] = num(r.n);
+    const techs = byTech.filter((r) => r.step_id === id);
+    const n = techs.reduce((a, r) => a + num(r.n), 0);
+    const borderline = techs.reduce((a, r) => a + num(r.borderline), 0);
+    const step = steps.get(id);
+    const reading = step?.kind === 'reading' ? step : null;
+    return {
+      stepId: id, quantity: reading?.quantity ?? null, unit: reading?.unit ?? null,
+      limits: reading?.limits ? resolveLimits(reading.limits) : {}, n, borderline, borderlineShare: n ? borderline / n : null,
+      bins: counts.map((count, i) => ({ lo: spec.lo + i * w, hi: spec.lo + (i + 1) * w, count })),
+      byTechnician: techs.map((r) => ({ technicianId: String(r.technician_id), technicianName: String(r.name), borderline: num(r.borderline), ...quart(r) })),
+    };
+  });
+  return { readings: out };
+}
+
+/** Median and quartiles (type 7) of seconds per step and per ended diagnosis. */
+export async function timesAnalytics(sql: Sql, scope: Scope): Promise<TimesAnalytics> {
+  const b = scopeBinds(scope);
+  const [steps, [whole]] = await Promise.all([
+    sql(`WITH ${SCOPED}, ${STEPS_ON_PATH} SELECT step_id, count(*) AS n,
+      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM answered_at - started_at)) AS q
+      FROM s GROUP BY step_id`, b),
+    sql(`WITH ${SCOPED} SELECT count(*) AS n,
+      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM ended_at - started_at)) AS q
+      FROM d WHERE status IN ('finished', 'handed_off') AND ended_at IS NOT NULL`, b),
+  ]);
+  return { definition: QUANTILE_DEFINITION, steps: steps.map((r) => ({ stepId: String(r.step_id), ...quart(r) })), diagnosis: quart(whole ?? {}) };
+}

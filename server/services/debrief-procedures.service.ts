@@ -1,0 +1,35 @@
+import type { ShopContext } from '../auth/context';
+import { requireAnalyticsReader, parseDocument, type Sql } from './debrief-scope';
+import type { ProcedureDocument } from '@shared/schema';
+
+export interface DebriefProcedure {
+  id: string;
+  slug: string;
+  title: string;
+  diagnoses: number;
+  versions: { id: string; number: number; status: string; publishedAt: string | null; diagnoses: number }[];
+  /** The latest numbered version's document, for the graph and the step names. */
+  document: ProcedureDocument;
+}
+
+/** Procedures of the shop that have a numbered version, with diagnosis counts per version. */
+export async function debriefProcedures(sql: Sql, ctx: ShopContext): Promise<DebriefProcedure[]> {
+  requireAnalyticsReader(ctx);
+  const rows = await sql(`SELECT p.id AS procedure_id, p.slug, p.title, v.id, v.number, v.status, v.published_at, v.document,
+      (SELECT count(*) FROM diagnoses d WHERE d.shop_id = $1 AND d.procedure_version_id = v.id) AS diagnoses
+    FROM procedures p JOIN procedure_versions v ON v.procedure_id = p.id AND v.status IN ('published', 'retired')
+    WHERE p.shop_id = $1 AND p.archived_at IS NULL ORDER BY p.title, v.number DESC`, [ctx.shopId]);
+  const out = new Map<string, DebriefProcedure>();
+  for (const r of rows) {
+    const id = String(r.procedure_id);
+    let p = out.get(id);
+    if (!p) {
+      p = { id, slug: String(r.slug), title: String(r.title), diagnoses: 0, versions: [], document: parseDocument(r.document) };
+      out.set(id, p);
+    }
+    p.diagnoses += Number(r.diagnoses);
+    p.versions.push({ id: String(r.id), number: Number(r.number), status: String(r.status),
+      publishedAt: r.published_at ? new Date(r.published_at as string).toISOString() : null, diagnoses: Number(r.diagnoses) });
+  }
+  return [...out.values()];
+}

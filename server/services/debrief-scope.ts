@@ -1,0 +1,83 @@
+import { QueryTypes } from 'sequelize';
+import type { ShopContext } from '../auth/context';
+import type { AppDeps } from '../deps';
+import { AppError, forbidden, notFound } from '../lib/errors';
+import { upgradeProcedure, type ProcedureDocument } from '@shared/schema';
+import type { AnalyticsQuery } from '@shared/stats/debrief-schema';
+
+/** Trainers and leads read everything of their shop; a technician reads only their own diagnoses. */
+export function diagnosisReader(ctx: ShopContext): { ownOnly: string | null } {
+  if (ctx.roles.includes('trainer') || ctx.roles.includes('lead')) return { ownOnly: null };
+  if (ctx.roles.includes('technician')) return { ownOnly: ctx.userId };
+  throw forbidden('read diagnoses');
+}
+
+export function requireAnalyticsReader(ctx: ShopContext): void {
+  if (!ctx.roles.includes('trainer') && !ctx.roles.includes('lead')) throw forbidden('read Debrief analytics');
+}
+
+export type Sql = (sql: string, bind: unknown[]) => Promise<Record<string, unknown>[]>;
+
+export function sqlOf(deps: Pick<AppDeps, 'sequelize'>): Sql {
+  return (sql, bind) => deps.sequelize.query<Record<string, unknown>>(sql, { bind, type: QueryTypes.SELECT });
+}
+
+export function parseDocument(raw: unknown): ProcedureDocument {
+  const up = upgradeProcedure(raw);
+  if (!up.ok) throw new AppError(500, 'stored_document_invalid', 'A procedure version is stored in a shape the app cannot read. Tell the engineers.');
+  return up.document;
+}
+
+/** Whole days: `from` at 00:00 UTC, `to` inclusive up to the next midnight. */
+export function dayBounds(q: { from?: string | undefined; to?: string | undefined }): [string, string] {
+  const to = q.to ? new Date(Date.parse(`${q.to}T00:00:00Z`) + 86_400_000).toISOString() : 'infinity';
+  return [q.from ? `${q.from}T00:00:00Z` : '-infinity', to];
+}
+
+export async function comebackDays(sql: Sql, shopId: string): Promise<number> {
+  const [row] = await sql(`SELECT settings->>'comebackDays' AS days FROM shops WHERE id = $1`, [shopId]);
+  const n = Number(row?.days);
+  return Number.isInteger(n) && n > 0 ? n : 30;
+}
+
+export interface Scope {
+  shopId: string;
+  procedureId: string;
+  title: string;
+  versionIds: string[];
+  /** The document the screens draw: the chosen version, or the latest published one. */
+  versionId: string;
+  doc: ProcedureDocument;
+  from: string;
+  to: string;
+}
+
+/** The procedure (and version) of the caller's shop that analytics run over; foreign ids are 404. */
+export async function analyticsScope(sql: Sql, ctx: ShopContext, q: AnalyticsQuery): Promise<Scope> {
+  requireAnalyticsReader(ctx);
+  const rows = await sql(
+    `SELECT p.title, v.id, v.number, v.document FROM procedures p
+     JOIN procedure_versions v ON v.procedure_id = p.id AND v.status IN ('published', 'retired')
+     WHERE p.id = $1 AND p.shop_id = $2 ORDER BY v.number DESC`,
+    [q.procedureId, ctx.shopId],
+  );
+  if (!rows.length) throw notFound('That procedure (with a published version)');
+  const chosen = q.versionId ? rows.find((r) => r.id === q.versionId) : rows[0];
+  if (!chosen) throw notFound('That version');
+  const [from, to] = dayBounds(q);
+  return {
+    shopId: ctx.shopId, procedureId: q.procedureId, title: String(chosen.title),
+    versionIds: q.versionId ? [q.versionId] : rows.map((r) => String(r.id)),
+    versionId: String(chosen.id), doc: parseDocument(chosen.document), from, to,
+  };
+}
+
+/** The scoped diagnoses as a CTE; binds $1 shop, $2 versions, $3 from, $4 to. */
+export const SCOPED = `d AS (
+  SELECT id, status, ending_step_id, started_at, ended_at, technician_id, vehicle_id FROM diagnoses
+  WHERE shop_id = $1 AND procedure_version_id = ANY($2::uuid[]) AND started_at >= $3::timestamptz AND started_at < $4::timestamptz)`;
+
+export const scopeBinds = (s: Scope): unknown[] => [s.shopId, s.versionIds, s.from, s.to];
+
+export const num = (v: unknown): number => Number(v ?? 0);
+export const numOrNull = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
