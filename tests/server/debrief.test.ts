@@ -1,0 +1,165 @@
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { QueryTypes } from 'sequelize';
+import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, type Client } from './harness';
+import { publishFixture } from './debrief.fixture';
+import { seedHistory, seedHistoryIfEmpty } from '../../server/seeders/history';
+import { lintProcedure } from '@shared/engine/lint';
+import { findCheckChains } from '@shared/engine/advisor';
+import { procedureDocumentSchema } from '@shared/schema';
+
+let env: TestEnv;
+let trainer: Client;
+let lead: Client;
+let tech: Client;
+let ids: { procedureId: string; versionId: string };
+let shopId: string;
+let techId: string;
+
+const q = (sql: string, bind: unknown[] = []) => env.runtime.deps.sequelize.query<Record<string, any>>(sql, { bind, type: QueryTypes.SELECT });
+
+beforeAll(async () => {
+  env = await startTestApp();
+  [{ id: shopId }] = (await q(`SELECT id FROM shops WHERE slug = 'larkspur-lane'`)) as [{ id: string }];
+  [{ id: techId }] = (await q(`SELECT id FROM users WHERE email = 'tech@larkspur.test'`)) as [{ id: string }];
+  ids = await publishFixture(env.runtime.deps, shopId);
+  await seedHistory(env.runtime.deps, shopId, { diagnoses: 150, seed: 5, now: new Date('2026-11-30T12:00:00Z'), days: 120 });
+  [trainer, lead, tech] = await Promise.all([signInAs(env.app, 'trainer'), signInAs(env.app, 'lead'), signInAs(env.app, 'tech')]);
+});
+afterAll(async () => { await env.close(); });
+
+describe('the diagnoses table', () => {
+  it('a trainer pages through every diagnosis of the shop, newest first, with the total of the filtered set', async () => {
+    const res = await trainer.get('/api/debrief/diagnoses?pageSize=20&page=2').expect(200);
+    expect(res.body.total).toBe(150);
+    expect(res.body.rows).toHaveLength(20);
+    const times = res.body.rows.map((r: { startedAt: string }) => r.startedAt);
+    expect([...times].sort().reverse()).toEqual(times);
+    expect(res.body.rows[0]).toMatchObject({ procedureTitle: 'Debrief fixture: no spark', versionNumber: 1 });
+  });
+
+  it('filters by status and flag and sorts by duration on the server', async () => {
+    const res = await trainer.get('/api/debrief/diagnoses?status=finished&sort=duration&dir=asc&pageSize=200').expect(200);
+    const [{ n }] = await q(`SELECT count(*)::int AS n FROM diagnoses WHERE status = 'finished'`);
+    expect(res.body.total).toBe(n);
+    const durations = res.body.rows.map((r: { durationSeconds: number }) => r.durationSeconds);
+    expect([...durations].sort((a, b) => a - b)).toEqual(durations);
+    const back = await trainer.get('/api/debrief/diagnoses?flag=taken-back&pageSize=200').expect(200);
+    const [{ m }] = await q(`SELECT count(DISTINCT diagnosis_id)::int AS m FROM diagnosis_steps WHERE superseded`);
+    expect(back.body.total).toBe(m);
+    expect(back.body.rows.every((r: { flags: { takenBack: boolean } }) => r.flags.takenBack)).toBe(true);
+  });
+
+  it('exports the filtered set as CSV with a header and one line per diagnosis', async () => {
+    const res = await trainer.get('/api/debrief/diagnoses.csv?status=abandoned').expect(200);
+    expect(res.headers['content-type']).toMatch(/text\/csv/);
+    const lines = res.text.trim().split('\r\n');
+    const [{ n }] = await q(`SELECT count(*)::int AS n FROM diagnoses WHERE status = 'abandoned'`);
+    expect(lines[0]).toMatch(/^id,procedure,version,vehicle/);
+    expect(lines).toHaveLength(n + 1);
+  });
+
+  it('a bad filter gets a 400 that names the field', async () => {
+    const res = await trainer.get('/api/debrief/diagnoses?status=lost').expect(400);
+    expect(expectEnvelope(res.body).issues?.[0]?.path).toBe('status');
+  });
+});
+
+describe('who sees what', () => {
+  it('a technician sees only their own diagnoses', async () => {
+    const res = await tech.get('/api/debrief/diagnoses?pageSize=200').expect(200);
+    const [{ n }] = await q(`SELECT count(*)::int AS n FROM diagnoses WHERE technician_id = $1`, [techId]);
+    expect(n).toBeGreaterThan(0);
+    expect(res.body.total).toBe(n);
+    expect(res.body.rows.every((r: { technicianId: string }) => r.technicianId === techId)).toBe(true);
+  });
+
+  it("a technician gets 404 for a colleague's diagnosis and 403 for the analytics", async () => {
+    const [other] = await q(`SELECT id FROM diagnoses WHERE technician_id <> $1 LIMIT 1`, [techId]);
+    expect(expectEnvelope((await tech.get(`/api/debrief/diagnoses/${other!.id}`).expect(404)).body).code).toBe('not_found');
+    await tech.get(`/api/debrief/analytics/steps?procedureId=${ids.procedureId}`).expect(403);
+  });
+
+  it('an author without a Debrief role is refused the table', async () => {
+    const author = await signInAs(env.app, 'author');
+    await author.get('/api/debrief/diagnoses').expect(403);
+  });
+
+  it('a trainer of another shop gets 404 for this shop\'s diagnosis and procedure, and sees none of its rows', async () => {
+    const outsider = await otherShopMember(env, ['trainer', 'lead']);
+    const [d] = await q(`SELECT id FROM diagnoses LIMIT 1`);
+    await outsider.get(`/api/debrief/diagnoses/${d!.id}`).expect(404);
+    await outsider.get(`/api/debrief/analytics/steps?procedureId=${ids.procedureId}`).expect(404);
+    await outsider.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: 'Nice work' }).expect(404);
+    await outsider.post('/api/debrief/advisor/drafts', { versionId: ids.versionId, order: ['a', 'b'] }).expect(404);
+    expect((await outsider.get('/api/debrief/diagnoses').expect(200)).body.total).toBe(0);
+  });
+});
+
+describe('replaying a diagnosis and coaching', () => {
+  it('the replay has the timeline with superseded answers, the path without them, and the document', async () => {
+    const [d] = await q(`SELECT diagnosis_id AS id FROM diagnosis_steps WHERE superseded LIMIT 1`);
+    const res = await trainer.get(`/api/debrief/diagnoses/${d!.id}`).expect(200);
+    const rows = await q(`SELECT step_id, superseded FROM diagnosis_steps WHERE diagnosis_id = $1 ORDER BY seq`, [d!.id]);
+    expect(res.body.steps.map((s: { stepId: string }) => s.stepId)).toEqual(rows.map((r) => r.step_id));
+    expect(res.body.steps.some((s: { superseded: boolean }) => s.superseded)).toBe(true);
+    expect(res.body.path.slice(0, -1)).toEqual(rows.filter((r) => !r.superseded).map((r) => r.step_id));
+    expect(res.body.document.start).toBe('prepare');
+    expect(res.body.diagnosis.flags.takenBack).toBe(true);
+  });
+
+  it('a trainer adds a note on a step; the technician who ran the diagnosis reads it', async () => {
+    const [d] = await q(`SELECT id FROM diagnoses WHERE technician_id = $1 AND status = 'finished' LIMIT 1`, [techId]);
+    const note = await trainer.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: 'Null the leads before the primary reading.', stepId: 'coilPrimary' }).expect(201);
+    expect(note.body).toMatchObject({ stepId: 'coilPrimary', authorName: 'Jordan Trainer' });
+    await lead.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: 'Good finding.' }).expect(201);
+    const seen = await tech.get(`/api/debrief/diagnoses/${d!.id}`).expect(200);
+    expect(seen.body.notes.map((n: { body: string; stepId: string | null }) => [n.stepId, n.body])).toEqual([
+      ['coilPrimary', 'Null the leads before the primary reading.'], [null, 'Good finding.'],
+    ]);
+  });
+
+  it('a technician cannot write coaching notes, an empty note or an unknown step gets 400, nothing is stored', async () => {
+    const [d] = await q(`SELECT id FROM diagnoses WHERE technician_id = $1 LIMIT 1`, [techId]);
+    const [{ before }] = await q(`SELECT count(*)::int AS before FROM coaching_notes`);
+    await tech.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: 'Self praise' }).expect(403);
+    expect(expectEnvelope((await trainer.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: '  ' }).expect(400)).body).issues?.[0]?.path).toBe('body');
+    expect(expectEnvelope((await trainer.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: 'x', stepId: 'nowhere' }).expect(400)).body).issues?.[0]?.path).toBe('stepId');
+    const [{ after }] = await q(`SELECT count(*)::int AS after FROM coaching_notes`);
+    expect(after).toBe(before);
+  });
+});
+
+describe('turning the advisor proposal into a draft', () => {
+  it('a lead makes a draft with the chain reordered; it passes the soundness check and points at the version', async () => {
+    const advice = await lead.get(`/api/debrief/analytics/advisor?procedureId=${ids.procedureId}&versionId=${ids.versionId}`).expect(200);
+    const order = ['pulserGap', 'exciter', 'killSwitch', 'coilPrimary'];
+    expect([...advice.body.chains[0].checks].sort()).toEqual([...order].sort());
+    await trainer.post('/api/debrief/advisor/drafts', { versionId: ids.versionId, order }).expect(403);
+    const res = await lead.post('/api/debrief/advisor/drafts', { versionId: ids.versionId, order }).expect(201);
+    const [draft] = await q(`SELECT * FROM procedure_versions WHERE id = $1`, [res.body.draftId]);
+    expect(draft).toMatchObject({ status: 'draft', based_on_id: ids.versionId, number: null });
+    const doc = procedureDocumentSchema.parse(draft!.document);
+    expect(lintProcedure(doc).errorCount).toBe(0);
+    expect(findCheckChains(doc)[0]!.checks).toEqual(order);
+  });
+
+  it('a second draft while one is open answers 409 with a message that says what to do', async () => {
+    const res = await lead.post('/api/debrief/advisor/drafts', { versionId: ids.versionId, order: ['exciter', 'killSwitch', 'coilPrimary', 'pulserGap'] }).expect(409);
+    expect(expectEnvelope(res.body).message).toMatch(/already has an open draft.*Drafting/);
+    const [{ n }] = await q(`SELECT count(*)::int AS n FROM procedure_versions WHERE procedure_id = $1 AND status = 'draft'`, [ids.procedureId]);
+    expect(n).toBe(1);
+  });
+
+  it('an order that is not a chain of the version gets 400', async () => {
+    await q(`DELETE FROM procedure_versions WHERE procedure_id = $1 AND status = 'draft'`, [ids.procedureId]);
+    await lead.post('/api/debrief/advisor/drafts', { versionId: ids.versionId, order: ['exciter', 'prepare'] }).expect(400);
+  });
+});
+
+describe('the demo history at start-up', () => {
+  it('seeds only when the shop has no diagnoses yet', async () => {
+    expect(await seedHistoryIfEmpty(env.runtime.deps, shopId, 50)).toBe(0);
+    const [{ sister }] = await q(`SELECT id AS sister FROM shops WHERE slug = 'larkspur-harbour'`);
+    expect(await seedHistoryIfEmpty(env.runtime.deps, sister, 50)).toBe(0); // no published procedure there
+  });
+});
