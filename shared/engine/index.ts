@@ -3,4 +3,4 @@ export { walkProcedure, type WalkAnswer, type WalkEntry, type WalkState, type Wa
 export { stepView, limitsView, type StepView, type LimitsView } from './step-view';
 export { pathFigures, stepMinutes, type PathFigures, type PathFiguresOptions, type PathLength, type StepFigures, type BranchCounts } from './figures';
 export { buildGraph, type ProcedureGraph } from './graph';
-export { reach, canReachEnding, stronglyConnected, depthFirst, dominators, type Components, type Dominators, type DepthFirst } from './algorithms';
+export { reach, canReachEnding, stronglyConnected, depthFirst, dominators, isBackEdge, type Components, type Dominators, type DepthFirst } from './algorithms';
