@@ -1,0 +1,90 @@
+import { useCallback, useEffect, useMemo, useState, type DragEvent } from 'react';
+import {
+  ReactFlow, Background, Controls, MiniMap, applyNodeChanges, useReactFlow,
+  type Connection, type EdgeChange, type NodeChange, type OnSelectionChangeParams,
+} from '@xyflow/react';
+import '@xyflow/react/dist/style.css';
+import type { ProcedureDocument, StepKind } from '@shared/schema';
+import type { Edit } from '../../lib/edits';
+import { toFlow, type FlowMarks, type StepNode } from '../../lib/flow';
+import { stepFor } from '../../lib/new-step';
+import { nodeTypes } from './step-node';
+import { KIND_TONE } from './step-glyphs';
+
+export const PALETTE_MIME = 'application/x-sparkwright-kind';
+
+interface Props {
+  doc: ProcedureDocument;
+  marks: FlowMarks;
+  readOnly: boolean;
+  onEdit: (edit: Edit) => void;
+  onSelect: (ids: string[]) => void;
+}
+
+/** React Flow bound to the document: every change the canvas reports becomes one Edit. */
+export function Canvas({ doc, marks, readOnly, onEdit, onSelect }: Props) {
+  const flow = useMemo(() => toFlow(doc, marks), [doc, marks]);
+  // React Flow needs to move nodes while they are dragged; the document changes on drop.
+  const [nodes, setNodes] = useState<StepNode[]>(flow.nodes);
+  useEffect(() => setNodes(flow.nodes), [flow.nodes]);
+  const { screenToFlowPosition } = useReactFlow();
+
+  const onNodesChange = useCallback((changes: NodeChange<StepNode>[]) => {
+    setNodes((ns) => applyNodeChanges(changes, ns));
+    const moves = changes.flatMap((c) => (c.type === 'position' && c.dragging === false && c.position ? [{ id: c.id, position: c.position }] : []));
+    if (moves.length > 0) onEdit({ type: 'move-steps', moves });
+    const removed = changes.flatMap((c) => (c.type === 'remove' ? [c.id] : []));
+    if (removed.length > 0) onEdit({ type: 'remove-steps', ids: removed });
+  }, [onEdit]);
+
+  const onEdgesChange = useCallback((changes: EdgeChange[]) => {
+    for (const c of changes) {
+      if (c.type !== 'remove') continue;
+      const edge = flow.edges.find((e) => e.id === c.id);
+      if (edge?.sourceHandle) onEdit({ type: 'disconnect', from: edge.source, handle: edge.sourceHandle });
+    }
+  }, [flow.edges, onEdit]);
+
+  const onConnect = useCallback((c: Connection) => {
+    if (c.sourceHandle) onEdit({ type: 'connect', from: c.source, handle: c.sourceHandle, to: c.target });
+  }, [onEdit]);
+
+  const onSelectionChange = useCallback(({ nodes: sel }: OnSelectionChangeParams) => onSelect(sel.map((n) => n.id)), [onSelect]);
+
+  const onDrop = useCallback((e: DragEvent) => {
+    const kind = e.dataTransfer.getData(PALETTE_MIME) as StepKind;
+    if (!kind || readOnly) return;
+    e.preventDefault();
+    const at = screenToFlowPosition({ x: e.clientX, y: e.clientY });
+    onEdit({ type: 'add-steps', steps: [stepFor(doc, kind, { x: Math.round(at.x - 120), y: Math.round(at.y - 40) })] });
+  }, [doc, onEdit, readOnly, screenToFlowPosition]);
+
+  return (
+    <div className="h-full w-full" onDragOver={(e) => { if (!readOnly) { e.preventDefault(); e.dataTransfer.dropEffect = 'copy'; } }} onDrop={onDrop} data-testid="canvas">
+      <ReactFlow<StepNode>
+        nodes={nodes}
+        edges={flow.edges}
+        nodeTypes={nodeTypes}
+        onNodesChange={onNodesChange}
+        onEdgesChange={onEdgesChange}
+        onConnect={onConnect}
+        onSelectionChange={onSelectionChange}
+        nodesDraggable={!readOnly}
+        nodesConnectable={!readOnly}
+        edgesReconnectable={false}
+        deleteKeyCode={readOnly ? null : ['Delete', 'Backspace']}
+        multiSelectionKeyCode={['Shift', 'Meta', 'Control']}
+        selectionKeyCode="Shift"
+        fitView
+        minZoom={0.1}
+        maxZoom={2}
+        proOptions={{ hideAttribution: true }}
+        defaultEdgeOptions={{ type: 'smoothstep' }}
+      >
+        <Background gap={24} color="var(--color-line)" />
+        <MiniMap pannable zoomable ariaLabel="Overview of the procedure" nodeColor={(n) => KIND_TONE[(n as StepNode).data.step.kind].stroke} />
+        <Controls showInteractive={false} />
+      </ReactFlow>
+    </div>
+  );
+}

@@ -1,0 +1,39 @@
+import { useEffect, useRef } from 'react';
+import { useForm, type DefaultValues, type FieldValues } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { stepSchema, type Step } from '@shared/schema';
+
+/**
+ * A react-hook-form over some fields of a step, validated by a zod schema picked from the shared
+ * step schema. Valid changes are merged onto the current step and checked against the whole
+ * step schema before they become an edit; changes from outside (undo, canvas) reset the form.
+ */
+export function useStepForm<V extends FieldValues>(
+  step: Step, schema: z.ZodType<V, V>, pick: (s: Step) => V, onChange: (s: Step) => void,
+  extraCheck?: (v: V) => { field: keyof V & string; message: string } | null,
+) {
+  const values = pick(step);
+  const form = useForm<V>({ resolver: zodResolver(schema), defaultValues: values as DefaultValues<V>, mode: 'onChange' });
+  const current = useRef(step);
+  current.current = step;
+  const seen = useRef(JSON.stringify(values));
+  useEffect(() => {
+    const j = JSON.stringify(values);
+    if (j !== seen.current) { seen.current = j; form.reset(values); }
+  });
+  useEffect(() => {
+    const sub = form.watch((v) => {
+      const parsed = schema.safeParse(v);
+      if (!parsed.success) return;
+      const problem = extraCheck?.(parsed.data);
+      if (problem) { form.setError(problem.field as never, { message: problem.message }); return; }
+      const merged = stepSchema.safeParse({ ...current.current, ...parsed.data });
+      if (!merged.success) return;
+      seen.current = JSON.stringify(parsed.data);
+      onChange(merged.data);
+    });
+    return () => sub.unsubscribe();
+  }, [form, schema, onChange, extraCheck]);
+  return form;
+}
