@@ -10,7 +10,7 @@ import { AppError, badRequest } from '../lib/errors';
 /** An earlier answered step on the path (not superseded), oldest first. */
 export interface PathRow { id: string; seq: number; stepId: string; value: number | null; next: string | null }
 
-export interface StepAnswer { entered?: string | undefined; leadEntered?: string | undefined; answerId?: string | undefined }
+export interface StepAnswer { entered?: string | undefined; leadEntered?: string | undefined; answerId?: string | undefined; acknowledged?: boolean | undefined }
 
 export interface DecidedStep {
   entered: string | null; value: number | null; unit: string | null; verdict: Verdict | null;
@@ -62,8 +62,11 @@ function remeasuredCount(path: readonly PathRow[], stepId: string): number {
 
 function decideReadingStep(step: Extract<Step, { kind: 'reading' }>, answer: StepAnswer, ctx: DecideContext): DecidedStep {
   const value = parseOrRefuse(answer.entered, step.quantity, step.unit, QUANTITY_INFO[step.quantity].label);
-  const lead = step.leadNull && answer.leadEntered ? parseOrRefuse(answer.leadEntered, 'resistance', step.unit, 'test-lead reading') : undefined;
+  const lead = step.leadNull && answer.leadEntered ? parseOrRefuse(answer.leadEntered, 'resistance', 'Ω', 'test-lead reading') : undefined;
   const temperature = step.winding ? ctx.valueOf(step.winding.temperatureStep) : undefined;
+  if (step.winding && temperature === undefined) {
+    throw new AppError(422, 'missing_value', `${step.title} needs the engine temperature, which was not measured on this path. Go back and measure it.`);
+  }
   const meter = step.meter ?? ctx.meterFor(step.quantity);
   const d = decideReading({
     value, limits: step.limits, meter, rule: step.decision, leadResistance: lead,
@@ -105,6 +108,9 @@ export interface DecideContext {
  */
 export function decideStep(step: Step, answer: StepAnswer, ctx: DecideContext): DecidedStep {
   const none = { entered: null, value: null, unit: null, verdict: null, bandId: null, answerId: null };
+  if (step.safety.some((n) => n.signal === 'DANGER') && !answer.acknowledged && step.kind !== 'formula') {
+    throw new AppError(422, 'not_acknowledged', `Read and acknowledge the DANGER note of "${step.title}" before answering it.`);
+  }
   switch (step.kind) {
     case 'reading': return decideReadingStep(step, answer, ctx);
     case 'formula': return decideFormulaStep(step, ctx);

@@ -46,6 +46,8 @@ export const StepInput = z.object({
   leadEntered: z.string().max(64).optional(),
   answerId: z.string().max(40).optional(),
   note: z.string().max(4000).default(''),
+  /** The technician acknowledged the step's DANGER note. */
+  acknowledged: z.boolean().default(false),
   outcome: z.union([FindingOutcomeInput, HandoffOutcomeInput]).optional(),
   startedAt: isoTime,
   answeredAt: isoTime,

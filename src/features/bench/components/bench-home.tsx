@@ -1,0 +1,56 @@
+import { useEffect, useState } from 'react';
+import { Link } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import { listLocalDiagnoses, type LocalDiagnosis } from '../../../lib/offline/db';
+import { PageHeader, Badge } from '../../../components/ui/card';
+import { LinkButton } from '../../../components/ui/button';
+import { LimitsNotice } from '../../../components/ui/safety';
+import { benchQueries } from '../api/queries';
+import { SyncBadge } from './sync-badge';
+
+const STATUS: Record<string, { label: string; tone: 'go' | 'signal' | 'edge' | 'neutral' }> = {
+  active: { label: 'In progress', tone: 'signal' }, finished: { label: 'Finished', tone: 'go' },
+  handed_off: { label: 'Handed off', tone: 'edge' }, abandoned: { label: 'Abandoned', tone: 'neutral' },
+};
+
+/** Bench home: resume active diagnoses (from this phone and the server), start one, see history. */
+export function BenchHome() {
+  const server = useQuery(benchQueries.diagnoses());
+  const [local, setLocal] = useState<LocalDiagnosis[]>([]);
+  useEffect(() => { void listLocalDiagnoses().then(setLocal); }, []);
+  const localActive = local.filter((d) => d.status === 'active');
+  const onPhone = new Set(local.map((d) => d.id));
+  const history = (server.data ?? []).filter((d) => !(d.status === 'active' && onPhone.has(d.id)));
+  return (
+    <div className="mx-auto max-w-xl space-y-5 pb-16">
+      <PageHeader title="Bench" actions={<SyncBadge />} />
+      <LinkButton to="/bench/start" size="lg" className="min-h-16 w-full text-xl">Start a diagnosis</LinkButton>
+      <section aria-labelledby="resume" className="space-y-2">
+        <h2 id="resume" className="text-xl font-bold">Resume on this phone</h2>
+        {localActive.length === 0 && <p className="text-ink-soft">Nothing in progress on this phone.</p>}
+        {localActive.map((d) => (
+          <Link key={d.id} to={`/bench/d/${d.id}`} className="flex min-h-16 items-center justify-between gap-2 rounded-lg border-2 border-signal bg-panel p-3 text-lg font-semibold">
+            <span>{d.vehicleLabel} · {d.procedureTitle}<span className="block text-base font-normal text-ink-soft">{d.rows.length} answers · started {new Date(d.startedAt).toLocaleString()}</span></span>
+            <span aria-hidden>›</span>
+          </Link>
+        ))}
+      </section>
+      <section aria-labelledby="history" className="space-y-2">
+        <h2 id="history" className="text-xl font-bold">My diagnoses</h2>
+        {server.isError && <p className="text-ink-soft">History needs a connection; it will show when the signal is back.</p>}
+        <ul className="space-y-2">
+          {history.map((d) => (
+            <li key={d.id}>
+              <Link to={`/bench/d/${d.id}/record`} className="flex min-h-14 items-center justify-between gap-2 rounded-lg border border-line bg-panel p-3">
+                <span><strong>{d.vehicleLabel}</strong> · {d.procedureTitle}<span className="block text-ink-soft">{new Date(d.startedAt).toLocaleDateString()} · {d.stepsAnswered} steps</span></span>
+                <Badge tone={STATUS[d.status]?.tone ?? 'neutral'}>{STATUS[d.status]?.label ?? d.status}</Badge>
+              </Link>
+            </li>
+          ))}
+        </ul>
+      </section>
+      <LinkButton to="/bench/job-card" variant="secondary" className="min-h-12 w-full">Print a job card</LinkButton>
+      <LimitsNotice />
+    </div>
+  );
+}

@@ -1,0 +1,116 @@
+import { useEffect, useMemo, useState } from 'react';
+import { useParams } from 'react-router-dom';
+import { pathFigures } from '@shared/engine/figures';
+import { stepView } from '@shared/engine/step-view';
+import { formatReading } from '@shared/measure/format';
+import { Alert, Spinner } from '../../../components/ui/card';
+import { LinkButton } from '../../../components/ui/button';
+import { useLocalDiagnosis } from '../hooks/use-local-diagnosis';
+import { StepCard } from './step-card';
+import { EndingForm } from './ending-form';
+import { PathList } from './path-list';
+import { PhotoField } from './photo-field';
+import { SyncBadge } from './sync-badge';
+
+function useSecondsSince(since: number): number {
+  const [now, setNow] = useState(() => Date.now());
+  useEffect(() => {
+    const t = setInterval(() => setNow(Date.now()), 1000);
+    return () => clearInterval(t);
+  }, []);
+  return Math.max(0, Math.floor((now - since) / 1000));
+}
+
+function StepTimer({ since }: { since: number }) {
+  const s = useSecondsSince(since);
+  return <span className="tabular-nums" aria-label="Time on this step">{Math.floor(s / 60)}:{String(s % 60).padStart(2, '0')}</span>;
+}
+
+function remeasuredAt(path: readonly { stepId: string; outcome: string }[], stepId: string): number {
+  let n = 0;
+  for (let i = path.length - 1; i >= 0 && path[i]!.stepId === stepId && path[i]!.outcome === 're-measure'; i--) n++;
+  return n;
+}
+
+/** The Bench step screen: one step at a time, walked on the phone, synced through the outbox. */
+export function DiagnosisScreen() {
+  const { id = '' } = useParams();
+  const d = useLocalDiagnosis(id);
+  const [editing, setEditing] = useState<number | null>(null);
+  const figures = useMemo(() => (d.doc ? pathFigures(d.doc) : null), [d.doc]);
+  const state = d.walked?.state;
+  const stepKey = `${d.diagnosis?.rows.length ?? 0}-${editing ?? 'now'}`;
+  const [shownAt, setShownAt] = useState(() => ({ key: stepKey, at: Date.now() }));
+  if (shownAt.key !== stepKey) setShownAt({ key: stepKey, at: Date.now() });
+
+  if (d.loading) return <Spinner label="Opening the diagnosis" />;
+  if (d.error || !d.doc || !d.diagnosis || !state) return <Alert title="Cannot open this diagnosis">{d.error}</Alert>;
+  const doc = d.doc;
+  const editPath = editing === null ? null : state.path[editing];
+  const currentView = editPath ? stepView(doc, doc.steps.find((s) => s.id === editPath.stepId)!) : state.current;
+  const currentStep = currentView ? doc.steps.find((s) => s.id === currentView.id)! : null;
+  const done = state.path.filter((p) => p.entryIndex !== null).length;
+  const left = currentView && figures ? figures.perStep[currentView.id]?.expectedSteps : undefined;
+  const lastComputed = [...state.path].reverse().find((p) => p.outcome !== 'ended');
+  const computedStep = lastComputed?.kind === 'formula' ? doc.steps.find((s) => s.id === lastComputed.stepId) : undefined;
+  const startedAt = new Date(shownAt.at).toISOString();
+  const photosHere = d.diagnosis.photos.filter((p) => p.stepId === (currentView?.id ?? state.ending?.id ?? null));
+
+  return (
+    <div className="mx-auto max-w-xl space-y-5 pb-16">
+      <header className="space-y-2">
+        <p className="text-base text-ink-soft">{d.diagnosis.procedureTitle} · {d.diagnosis.vehicleLabel}</p>
+        <div className="flex flex-wrap items-center gap-3">
+          <SyncBadge />
+          <span className="text-lg font-semibold" data-testid="progress">
+            {done} done{left !== undefined && Number.isFinite(left) ? ` · about ${Math.max(0, Math.round(left - 1))} to go` : ''}
+          </span>
+          {(currentView || state.ending) && <span className="ml-auto text-lg font-semibold">⏱ <StepTimer since={shownAt.at} /></span>}
+        </div>
+        <div className="h-3 overflow-hidden rounded-full bg-line" aria-hidden>
+          <div className="h-full bg-signal" style={{ width: `${Math.round((100 * done) / Math.max(1, done + (left ?? 0)))}%` }} />
+        </div>
+      </header>
+
+      {computedStep && computedStep.kind === 'formula' && lastComputed?.value !== undefined && !editPath && (
+        <div className="rounded-lg border-2 border-notice bg-panel p-3" data-kind="formula" data-testid="computed">
+          <p className="text-base font-bold uppercase tracking-wide text-notice">Computed, nothing to measure</p>
+          <p className="text-xl font-bold">{computedStep.title}: {formatReading({ value: lastComputed.value, quantity: computedStep.quantity, significantDigits: 3 }, { unit: computedStep.unit })}</p>
+          <p className="text-base text-ink-soft">{computedStep.instructions}</p>
+        </div>
+      )}
+
+      {editPath && <Alert tone="edge" title="Changing an earlier answer">The answers after it will be kept in the record as changed. <button type="button" className="underline min-h-12" onClick={() => setEditing(null)}>Keep the answer</button></Alert>}
+
+      {currentView && currentStep && (
+        <StepCard key={stepKey} view={currentView} step={currentStep} values={state.values} remeasure={!editPath && state.remeasure}
+          remeasured={editPath ? 0 : remeasuredAt(state.path, currentView.id)}
+          extras={(note, setNote) => (
+            <div className="space-y-3">
+              <label className="block text-lg font-bold">Note
+                <textarea className="mt-1 w-full rounded-lg border-2 border-ink/40 bg-panel p-2 text-lg" rows={2} value={note} onChange={(e) => setNote(e.target.value)} />
+              </label>
+              <PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, currentView.id)} />
+            </div>
+          )}
+          onAnswer={async (a) => { await d.answer({ ...a, startedAt }, editing ?? undefined); setEditing(null); }} />
+      )}
+
+      {!editPath && state.status === 'ended' && state.ending && d.diagnosis.status === 'active' && (
+        <>
+          <EndingForm view={state.ending} onFinish={(outcome, note) => d.finish(state.ending!.id, outcome, note, startedAt)} />
+          <PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, state.ending!.id)} />
+        </>
+      )}
+      {d.diagnosis.status !== 'active' && (
+        <Alert tone="go" title={d.diagnosis.status === 'finished' ? 'Diagnosis finished' : 'Handed off'}>
+          <p>Everything is kept on this phone until it has synced.</p>
+          <LinkButton to={`/bench/d/${id}/record`} size="lg" className="mt-3 w-full">Open the record and report</LinkButton>
+        </Alert>
+      )}
+      {state.status === 'stuck' && <Alert title="The procedure cannot go on from here">{state.problem?.message}</Alert>}
+
+      <PathList doc={doc} path={state.path} onChange={(i) => { setEditing(i); window.scrollTo(0, 0); }} />
+    </div>
+  );
+}

@@ -1,0 +1,80 @@
+import { useState } from 'react';
+import { useParams } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import { api, ApiError } from '../../../lib/api-client';
+import { PageHeader, Alert, Spinner, Badge } from '../../../components/ui/card';
+import { Button } from '../../../components/ui/button';
+import { LimitsNotice } from '../../../components/ui/safety';
+import { benchQueries } from '../api/queries';
+import type { RecordStep } from '../api/types';
+import { SyncBadge } from './sync-badge';
+
+const VERDICT: Record<string, [string, 'go' | 'stop' | 'edge']> = {
+  within: ['within limits', 'go'], below: ['below limits', 'stop'], above: ['above limits', 'stop'],
+  'borderline-low': ['borderline', 'edge'], 'borderline-high': ['borderline', 'edge'],
+};
+
+function answer(s: RecordStep): string {
+  if (s.entered) return s.entered;
+  if (s.answerId) return s.shown.answers?.find((a) => a.id === s.answerId)?.label ?? s.answerId;
+  if (s.kind === 'formula' && s.value !== null) return `computed ${Number(s.value.toPrecision(4))} ${s.unit ?? ''}`;
+  return s.kind === 'task' ? 'done' : '';
+}
+
+/** The complete record as a printable timeline, with the e-mail report and coaching notes. */
+export function RecordPage() {
+  const { id = '' } = useParams();
+  const record = useQuery(benchQueries.record(id));
+  const [sent, setSent] = useState<string | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  if (record.isLoading) return <Spinner label="Loading the record" />;
+  if (!record.data) return <Alert title="The record is not available">{record.error instanceof ApiError ? record.error.message : 'It shows once this phone has synced and has signal.'}</Alert>;
+  const r = record.data;
+  const email = async () => {
+    setError(null);
+    try { setSent((await api.post<{ sentTo: string }>(`/api/diagnoses/${id}/report`, {})).sentTo); } catch (e) { setError(e instanceof ApiError ? e.message : 'Not sent.'); }
+  };
+  return (
+    <div className="mx-auto max-w-3xl space-y-4 pb-16">
+      <PageHeader title={`${r.vehicleLabel} · ${r.procedureTitle}`} subtitle={`Version ${r.versionNumber} · ${r.technicianName} · started ${new Date(r.startedAt).toLocaleString()}`} actions={<span className="no-print"><SyncBadge /></span>} />
+      <p className="text-lg"><strong>Complaint:</strong> {r.complaint}</p>
+      <ol className="space-y-2" aria-label="Timeline">
+        {r.steps.map((s) => (
+          <li key={s.id} className={`rounded-lg border border-line bg-panel p-3 break-inside-avoid ${s.superseded ? 'opacity-70' : ''}`}>
+            <div className="flex flex-wrap items-center gap-2">
+              <span className="font-bold">{s.seq}. {s.shown.title ?? s.stepId}</span>
+              {s.verdict && <Badge tone={VERDICT[s.verdict]?.[1] ?? 'edge'}>{VERDICT[s.verdict]?.[0]}</Badge>}
+              {s.superseded && <Badge>changed later</Badge>}
+              <span className="ml-auto text-sm text-ink-soft">{new Date(s.answeredAt).toLocaleTimeString()}</span>
+            </div>
+            <p className="text-lg">{answer(s)}{s.shown.limitsText ? <span className="text-ink-soft"> · limits {s.shown.limitsText}</span> : null}</p>
+            {s.shown.cause && <p><strong>Cause:</strong> {s.shown.cause} <strong>Repair:</strong> {s.shown.repair}</p>}
+            {s.note && <p className="text-ink-soft">Note: {s.note}</p>}
+            {r.attachments.filter((a) => a.stepId === s.stepId && !s.superseded).map((a) => <img key={a.id} src={`/api/attachments/${a.id}/thumb`} alt={`Photo ${a.originalName}`} className="mt-2 inline-block h-24 w-24 rounded border border-line object-cover" />)}
+          </li>
+        ))}
+      </ol>
+      {r.outcome && (
+        <section className="rounded-lg border-2 border-ink/30 bg-panel p-3">
+          {r.outcome.reason && <p><strong>Handed off:</strong> {r.outcome.reason}</p>}
+          {r.outcome.partsFitted && <p><strong>Parts fitted:</strong> {r.outcome.partsFitted.map((p) => `${p.name}${p.lot ? ` (lot ${p.lot})` : ''}`).join(', ') || 'none'}</p>}
+          {r.outcome.finalCheck && <p><strong>Final check:</strong> spark {r.outcome.finalCheck.spark ? 'yes' : 'no'}, runs {r.outcome.finalCheck.runs ? 'yes' : 'no'}, stops {r.outcome.finalCheck.stops ? 'yes' : 'no'}</p>}
+          {r.outcome.labourMinutes !== undefined && <p><strong>Labour:</strong> {r.outcome.labourMinutes} min</p>}
+        </section>
+      )}
+      {r.coachingNotes.length > 0 && (
+        <section aria-labelledby="coaching" className="space-y-2">
+          <h2 id="coaching" className="text-xl font-bold">Coaching notes</h2>
+          {r.coachingNotes.map((n) => <blockquote key={n.id} className="rounded-lg border-l-4 border-notice bg-panel p-3">{n.body}<footer className="text-sm text-ink-soft">— {n.authorName ?? 'Trainer'}{n.stepId ? ` on ${n.stepId}` : ''}</footer></blockquote>)}
+        </section>
+      )}
+      <LimitsNotice />
+      <div className="no-print grid gap-2 sm:grid-cols-2">
+        <Button size="lg" className="min-h-14" onClick={() => window.print()}>Print</Button>
+        <Button size="lg" variant="secondary" className="min-h-14" onClick={() => void email()}>E-mail to the service desk</Button>
+      </div>
+      {sent && <Alert tone="go" title="Report sent">Sent to {sent}.</Alert>}
+      {error && <Alert title="Report not sent">{error}</Alert>}
+    </div>
+  );
+}

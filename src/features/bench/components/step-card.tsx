@@ -1,0 +1,91 @@
+import { useState, type ReactNode } from 'react';
+import type { Step } from '@shared/schema/procedure';
+import type { StepView } from '@shared/engine/step-view';
+import type { FormulaValue } from '@shared/measure/formula';
+import { SafetyNote, LimitsNotice } from '../../../components/ui/safety';
+import { ReadingField, type ReadingValue } from './reading-field';
+import type { Answer } from '../hooks/use-local-diagnosis';
+
+const big = 'w-full min-h-16 rounded-xl px-5 text-xl font-bold text-left disabled:opacity-40';
+
+/** Safety notes most severe first; a DANGER note locks the step until it is acknowledged. */
+export function SafetyBlock({ view, acknowledged, onAcknowledge }: { view: StepView; acknowledged: boolean; onAcknowledge(): void }) {
+  return (
+    <div className="space-y-2">
+      {view.safety.map((n, i) => (
+        <SafetyNote key={i} signal={n.signal} action={n.signal === 'DANGER' && !acknowledged
+          ? <button type="button" onClick={onAcknowledge} className="min-h-12 w-full rounded-lg bg-danger px-4 text-lg font-bold text-white">I have read this and will keep clear</button>
+          : undefined}>
+          {n.text}
+        </SafetyNote>
+      ))}
+    </div>
+  );
+}
+
+export function LimitsBox({ view }: { view: StepView }) {
+  if (!view.limits) return null;
+  return (
+    <div className="rounded-lg border-2 border-ink/20 bg-panel p-3">
+      <p className="text-lg">Limits: <strong className="text-xl">{view.limits.text}</strong></p>
+      {view.limitsNote && <p className="text-base text-ink-soft">{view.limitsNote}</p>}
+      <LimitsNotice />
+    </div>
+  );
+}
+
+/** One step to answer: instruction, safety, limits, then the control its kind asks for. */
+export function StepCard({ view, step, values, remeasure, remeasured, extras, onAnswer }: {
+  view: StepView; step: Step; values: Readonly<Record<string, FormulaValue>>; remeasure: boolean; remeasured: number;
+  extras: (note: string, setNote: (n: string) => void) => ReactNode;
+  onAnswer(a: Omit<Answer, 'startedAt'>): Promise<void>;
+}) {
+  const [acknowledged, setAcknowledged] = useState(!view.mustAcknowledge);
+  const [reading, setReading] = useState<ReadingValue>({ entered: '', leadEntered: '', valid: false });
+  const [note, setNote] = useState('');
+  const [busy, setBusy] = useState(false);
+  const locked = !acknowledged || busy;
+  const send = async (a: Partial<Omit<Answer, 'startedAt'>>) => {
+    setBusy(true);
+    try {
+      await onAnswer({ stepId: view.id, note, acknowledged: view.mustAcknowledge ? acknowledged : false, ...a });
+    } finally {
+      setBusy(false);
+    }
+  };
+  return (
+    <article className="space-y-4" aria-labelledby="step-title" data-kind={view.kind}>
+      <h2 id="step-title" className="text-2xl font-black leading-tight">{view.title}</h2>
+      <SafetyBlock view={view} acknowledged={acknowledged} onAcknowledge={() => setAcknowledged(true)} />
+      {view.instructions && <p className="text-xl leading-snug">{view.instructions}</p>}
+      {remeasure && <p className="rounded-lg bg-edge-soft p-3 text-lg font-semibold text-ink">The last reading was borderline: measure again.</p>}
+      <LimitsBox view={view} />
+      {extras(note, setNote)}
+      <fieldset disabled={locked} className="space-y-3">
+        <legend className="sr-only">Answer</legend>
+        {step.kind === 'reading' && (
+          <>
+            <ReadingField step={step} values={values} remeasured={remeasured} disabled={locked} onChange={setReading} />
+            <button type="button" className={`${big} bg-ink text-white`} disabled={!reading.valid}
+              onClick={() => void send({ entered: reading.entered, ...(reading.leadEntered.trim() ? { leadEntered: reading.leadEntered } : {}) })}>
+              Save reading and continue
+            </button>
+          </>
+        )}
+        {step.kind === 'observation' && (
+          <>
+            <p className="text-xl font-bold">{view.question}</p>
+            <div className="grid gap-3">
+              {view.answers?.map((a) => (
+                <button key={a.id} type="button" className={`${big} border-4 border-ink bg-panel text-ink hover:bg-signal-soft`} onClick={() => void send({ answerId: a.id })}>{a.label}</button>
+              ))}
+            </div>
+          </>
+        )}
+        {step.kind === 'task' && (
+          <button type="button" className={`${big} bg-ink text-white`} onClick={() => void send({})}>{view.confirmLabel ?? 'Done'}</button>
+        )}
+      </fieldset>
+    </article>
+  );
+}

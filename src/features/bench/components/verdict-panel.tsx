@@ -1,0 +1,38 @@
+import type { ReadingStep } from '@shared/schema/procedure';
+import type { ReadingDecision, Verdict } from '@shared/measure/verdict';
+import { formatReading } from '@shared/measure/format';
+import { cx } from '../../../components/ui/cx';
+
+const WORDS: Record<Verdict, { label: string; tone: string }> = {
+  within: { label: 'Within limits', tone: 'border-go bg-go-soft text-go' },
+  below: { label: 'Below limits', tone: 'border-stop bg-stop-soft text-stop' },
+  above: { label: 'Above limits', tone: 'border-stop bg-stop-soft text-stop' },
+  'borderline-low': { label: 'Borderline — at the lower limit', tone: 'border-edge bg-edge-soft text-edge' },
+  'borderline-high': { label: 'Borderline — at the upper limit', tone: 'border-edge bg-edge-soft text-edge' },
+};
+
+/** The verdict as soon as the value is valid, with the meter's uncertainty interval. */
+export function VerdictPanel({ step, decision }: { step: ReadingStep; decision: ReadingDecision }) {
+  const f = (v: number) => formatReading({ value: v, quantity: step.quantity, significantDigits: 3 });
+  const v = decision.verdict ? WORDS[decision.verdict] : null;
+  const borderline = decision.verdict === 'borderline-low' || decision.verdict === 'borderline-high';
+  return (
+    <div data-testid="verdict" className={cx('rounded-lg border-l-8 p-3 text-ink', v ? v.tone : 'border-line bg-panel')}>
+      <p className="text-2xl font-black">{v ? v.label : 'No limits on this step'}</p>
+      <p className="text-lg text-ink">
+        Value used: <strong>{f(decision.value)}</strong>
+        {decision.interval && <> (meter uncertainty: {f(decision.interval.low)} to {f(decision.interval.high)})</>}
+      </p>
+      {decision.corrections.leadNull !== undefined && <p className="text-base text-ink">Test leads {f(decision.corrections.leadNull)} subtracted.</p>}
+      {borderline && decision.route.kind === 're-measure' && (
+        <p className="mt-1 text-lg font-semibold text-ink">Too close to call: clean the contacts, check the meter range, and measure again. Save this reading and enter the new one.</p>
+      )}
+      {borderline && decision.route.kind === 'borderline-branch' && (
+        <p className="mt-1 text-lg font-semibold text-ink">Too close to call: the procedure takes the borderline branch next.</p>
+      )}
+      {borderline && decision.route.kind === 'band' && (
+        <p className="mt-1 text-lg font-semibold text-ink">Still borderline after measuring again: the measured value decides the next step. Note it for the senior technician.</p>
+      )}
+    </div>
+  );
+}

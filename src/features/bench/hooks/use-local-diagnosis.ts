@@ -1,0 +1,83 @@
+import { useCallback, useEffect, useMemo, useState } from 'react';
+import { upgradeProcedure } from '@shared/schema/upgrade';
+import type { ProcedureDocument } from '@shared/schema/procedure';
+import { commitLocal, getLocalDiagnosis, getVersion, type LocalDiagnosis, type LocalRow, type OutboxMessage } from '../../../lib/offline/db';
+import { flushOutbox } from '../../../lib/offline/outbox';
+import { afterFor, formulaRows, walkRows, withMeter, type Walked } from '../lib/walk-rows';
+import { makeThumbnail } from '../lib/thumbnail';
+
+export interface Answer { stepId: string; entered?: string; leadEntered?: string; answerId?: string; acknowledged?: boolean; note: string; startedAt: string }
+
+export interface LocalDiagnosisApi {
+  loading: boolean;
+  error: string | null;
+  diagnosis: LocalDiagnosis | null;
+  doc: ProcedureDocument | null;
+  walked: Walked | null;
+  /** Answers the current step, or (with `index`) the step at that place on the path, going back. */
+  answer(a: Answer, index?: number): Promise<void>;
+  finish(stepId: string, outcome: Record<string, unknown>, note: string, startedAt: string): Promise<void>;
+  addPhoto(file: File, stepId: string | null): Promise<void>;
+}
+
+/** A diagnosis read from and written to the phone; the outbox carries each change to the server. */
+export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
+  const [diagnosis, setDiagnosis] = useState<LocalDiagnosis | null>(null);
+  const [doc, setDoc] = useState<ProcedureDocument | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [loading, setLoading] = useState(true);
+
+  useEffect(() => {
+    let live = true;
+    (async () => {
+      const d = await getLocalDiagnosis(id);
+      if (!d) throw new Error('This diagnosis is not on this phone. Open it from the Bench home, or start a new one.');
+      const v = await getVersion(d.versionId);
+      const up = upgradeProcedure(v?.document);
+      if (!up.ok) throw new Error('The procedure of this diagnosis is not on this phone. Connect once and open it again.');
+      if (live) { setDiagnosis(d); setDoc(withMeter(up.document, d.meterEntries)); }
+    })().catch((e: unknown) => live && setError(e instanceof Error ? e.message : String(e))).finally(() => live && setLoading(false));
+    return () => { live = false; };
+  }, [id]);
+
+  const walked = useMemo(() => (doc && diagnosis ? walkRows(doc, diagnosis.rows) : null), [doc, diagnosis]);
+
+  const save = useCallback(async (next: LocalDiagnosis, messages: OutboxMessage[]) => {
+    await commitLocal(next, messages);
+    setDiagnosis(next);
+    void flushOutbox();
+  }, []);
+
+  const answer = useCallback(async (a: Answer, index?: number) => {
+    if (!doc || !diagnosis || !walked) return;
+    const now = new Date().toISOString();
+    const at = index ?? walked.path.length;
+    const row: LocalRow = {
+      id: crypto.randomUUID(), stepId: a.stepId, after: afterFor(walked.path, at), note: a.note, startedAt: a.startedAt, answeredAt: now,
+      ...(a.entered !== undefined ? { entered: a.entered } : {}), ...(a.leadEntered ? { leadEntered: a.leadEntered } : {}),
+      ...(a.answerId !== undefined ? { answerId: a.answerId } : {}), ...(a.acknowledged ? { acknowledged: true } : {}),
+    };
+    const rows = [...diagnosis.rows, row];
+    const computed = formulaRows(doc, rows, now);
+    const all = [...rows, ...computed];
+    await save({ ...diagnosis, rows: all }, [row, ...computed].map((body) => ({ kind: 'step', body })));
+  }, [doc, diagnosis, walked, save]);
+
+  const finish = useCallback(async (stepId: string, outcome: Record<string, unknown>, note: string, startedAt: string) => {
+    if (!doc || !diagnosis || !walked) return;
+    const step = doc.steps.find((s) => s.id === stepId);
+    const row: LocalRow = { id: crypto.randomUUID(), stepId, after: afterFor(walked.path, walked.path.length), note, outcome, startedAt, answeredAt: new Date().toISOString() };
+    await save({ ...diagnosis, rows: [...diagnosis.rows, row], status: step?.kind === 'handoff' ? 'handed_off' : 'finished' }, [{ kind: 'step', body: row }]);
+  }, [doc, diagnosis, walked, save]);
+
+  const addPhoto = useCallback(async (file: File, stepId: string | null) => {
+    if (!diagnosis) return;
+    const thumb = await makeThumbnail(file);
+    const photoId = crypto.randomUUID();
+    const name = file.name.replace(/^.*[\\/]/, '') || 'photo.jpg';
+    const next = { ...diagnosis, photos: [...diagnosis.photos, { id: photoId, stepId, name, thumbUrl: thumb?.dataUrl ?? '' }] };
+    await save(next, [{ kind: 'photo', id: photoId, stepId, name, photo: file, thumb: thumb?.blob ?? null }]);
+  }, [diagnosis, save]);
+
+  return { loading, error, diagnosis, doc, walked, answer, finish, addPhoto };
+}

@@ -1,0 +1,69 @@
+import { walkProcedure, type WalkEntry, type WalkState } from '@shared/engine/walk';
+import type { ProcedureDocument } from '@shared/schema/procedure';
+import type { LocalRow } from '../../../lib/offline/db';
+
+export type MeterEntry = { quantity: string; percentOfReading: number; counts: number; resolution: number };
+
+/**
+ * The diagnosis meter's spec fills in Readings that name none, exactly as the server does, so
+ * the verdict on the phone and the one on record agree.
+ */
+export function withMeter(doc: ProcedureDocument, entries: readonly MeterEntry[]): ProcedureDocument {
+  if (!entries.length) return doc;
+  return {
+    ...doc,
+    steps: doc.steps.map((s) => {
+      if (s.kind !== 'reading' || s.meter) return s;
+      const e = entries.find((m) => m.quantity === s.quantity);
+      return e ? { ...s, meter: { percentOfReading: e.percentOfReading, counts: e.counts, resolution: e.resolution } } : s;
+    }),
+  };
+}
+
+/** The rows on the current path: each row cuts the path back to the row it follows. */
+export function pathRows(rows: readonly LocalRow[]): LocalRow[] {
+  let path: LocalRow[] = [];
+  for (const row of rows) {
+    const at = row.after === null ? -1 : path.findIndex((r) => r.id === row.after);
+    path = [...path.slice(0, at + 1), row];
+  }
+  return path;
+}
+
+function entryOf(doc: ProcedureDocument, row: LocalRow): WalkEntry | null {
+  const step = doc.steps.find((s) => s.id === row.stepId);
+  const acknowledged = row.acknowledged ?? false;
+  if (step?.kind === 'reading') return { stepId: row.stepId, acknowledged, answer: { kind: 'reading', text: row.entered ?? '', ...(row.leadEntered ? { leadText: row.leadEntered } : {}) } };
+  if (step?.kind === 'observation') return { stepId: row.stepId, acknowledged, answer: { kind: 'observation', answerId: row.answerId ?? '' } };
+  if (step?.kind === 'task') return { stepId: row.stepId, acknowledged, answer: { kind: 'task' } };
+  return null; // Formulas are computed and endings end: the walker needs no entry for them
+}
+
+export interface Walked { state: WalkState; path: LocalRow[] }
+
+/** Where the diagnosis stands, by the shared walker over the answers on the current path. */
+export function walkRows(doc: ProcedureDocument, rows: readonly LocalRow[]): Walked {
+  const path = pathRows(rows);
+  const entries = path.map((r) => entryOf(doc, r)).filter((e): e is WalkEntry => e !== null);
+  return { state: walkProcedure(doc, entries), path };
+}
+
+/** Rows for the Formula steps the walker computed past the last row, so the server records them too. */
+export function formulaRows(doc: ProcedureDocument, rows: readonly LocalRow[], now: string): LocalRow[] {
+  const added: LocalRow[] = [];
+  const { state, path } = walkRows(doc, rows);
+  let last = path[path.length - 1]?.id ?? null;
+  for (let i = path.length; i < state.path.length; i++) {
+    const p = state.path[i]!;
+    if (p.kind !== 'formula') break;
+    const row: LocalRow = { id: crypto.randomUUID(), stepId: p.stepId, after: last, note: '', startedAt: now, answeredAt: now };
+    added.push(row);
+    last = row.id;
+  }
+  return added;
+}
+
+/** The row a new answer at path position `index` follows (the row before it, or null at the start). */
+export function afterFor(path: readonly LocalRow[], index: number): string | null {
+  return index <= 0 ? null : path[index - 1]!.id;
+}
