@@ -63,7 +63,7 @@ test('the admin adds a machine with a VIN whose check digit is wrong and is told
   await page.getByLabel('Frame number or VIN').fill('1M8GDM9AXKP042788');
   await expect(page.getByText('VIN check digit is correct.')).toBeVisible();
   await page.getByRole('button', { name: 'Add machine' }).click();
-  await expect(page.getByRole('cell', { name: 'E2E-1' })).toBeVisible();
+  await expect(page.getByRole('cell', { name: 'E2E-1', exact: true })).toBeVisible();
   await shot(page, 'foundation-admin-machines');
 });
 

@@ -18,6 +18,7 @@ export async function signIn(page: Page, who: DemoRole): Promise<void> {
 /** Saves a full-page screenshot into the test output, named for what it shows. */
 export async function shot(page: Page, name: string): Promise<void> {
   mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  await page.evaluate(() => document.fonts.ready.then(() => undefined));
   await page.screenshot({ path: `${SCREENSHOT_DIR}/${name}.png`, fullPage: true });
 }
 

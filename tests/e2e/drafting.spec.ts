@@ -1,0 +1,146 @@
+import { test, expect, type Page, type Locator } from '@playwright/test';
+import { signIn, shot } from './helpers';
+import { DEMO_PROCEDURES } from '../../content';
+
+// Drafting as an author on a big screen, and a lead publishing: palette → canvas → inspector →
+// soundness → preview → review → publish, in Debian's Chromium against the built app.
+
+test.use({ viewport: { width: 1600, height: 1000 } });
+
+/** Writes through the API from the signed-in page (same session and CSRF as the app). */
+async function apiPost<T>(page: Page, url: string, body: unknown): Promise<T> {
+  return page.evaluate(async ({ url, body }) => {
+    const { token } = await (await fetch('/api/auth/csrf')).json() as { token: string };
+    const res = await fetch(url, { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': token }, body: JSON.stringify(body) });
+    if (!res.ok) throw new Error(`${url}: ${res.status} ${await res.text()}`);
+    return res.json();
+  }, { url, body }) as Promise<T>;
+}
+
+const node = (page: Page, id: string) => page.locator(`.react-flow__node[data-id="${id}"]`);
+
+/** Drags a branch from a band/answer/next handle onto another step, as an author does with a mouse. */
+async function connect(page: Page, from: string, handle: string, to: string): Promise<void> {
+  const source = page.getByTestId(`handle-${from}-${handle}`);
+  const target = node(page, to).locator('.react-flow__handle.target');
+  await dragBetween(page, source, target);
+  await expect(page.locator(`.react-flow__edge[data-id="${from}:${handle}"]`)).toHaveCount(1);
+}
+
+async function dragBetween(page: Page, a: Locator, b: Locator): Promise<void> {
+  const s = (await a.boundingBox())!;
+  const t = (await b.boundingBox())!;
+  await page.mouse.move(s.x + s.width / 2, s.y + s.height / 2);
+  await page.mouse.down();
+  await page.mouse.move(t.x + t.width / 2, t.y + t.height / 2, { steps: 12 });
+  await page.mouse.up();
+}
+
+async function moveNode(page: Page, id: string, x: number, y: number): Promise<void> {
+  const box = (await node(page, id).boundingBox())!;
+  await page.mouse.move(box.x + box.width / 2, box.y + 20);
+  await page.mouse.down();
+  await page.mouse.move(x, y, { steps: 8 });
+  await page.mouse.up();
+}
+
+test('the editor opens the largest demo procedure in under 1.5 s', async ({ page }) => {
+  const largest = [...DEMO_PROCEDURES].sort((a, b) => b.document.steps.length - a.document.steps.length)[0]!;
+  await signIn(page, 'author');
+  const created = await apiPost<{ procedureId: string; draftId: string }>(page, '/api/procedures/import', { file: largest.document, title: `${largest.document.meta.title} (timing)` });
+  await page.goto('/drafting');
+  await expect(page.getByRole('heading', { name: 'Drafting' })).toBeVisible();
+  const started = Date.now();
+  await page.goto(`/drafting/${created.procedureId}/versions/${created.draftId}`);
+  await expect(page.locator('.react-flow__node')).toHaveCount(largest.document.steps.length);
+  await expect(page.locator('.react-flow__edge').first()).toBeVisible();
+  const ms = Date.now() - started;
+  console.log(`editor with ${largest.slug} (${largest.document.steps.length} steps) visible after ${ms} ms`);
+  await shot(page, 'drafting-editor-demo');
+  expect(ms).toBeLessThan(1500);
+});
+
+test('an author builds a procedure from the palette, fixes a band gap, previews it, and a lead publishes it', async ({ page, browser }) => {
+  await signIn(page, 'author');
+  await page.goto('/drafting');
+  await page.getByRole('button', { name: 'New procedure' }).click();
+  await page.getByLabel('Title').fill('Exciter coil check');
+  await page.getByLabel('Symptom').fill('No spark at the plug');
+  await page.getByRole('button', { name: 'Create' }).click();
+  await expect(node(page, 'prepare')).toBeVisible();
+  await shot(page, 'drafting-list-new');
+
+  // one step dragged from the palette, the others added by pressing their palette button
+  await page.getByTestId('palette-reading').dragTo(page.getByTestId('canvas'), { targetPosition: { x: 500, y: 330 } });
+  await expect(node(page, 'reading1')).toBeVisible();
+  await page.getByTestId('palette-observation').click();
+  await page.getByTestId('palette-finding').click();
+  await page.getByTestId('palette-finding').click();
+  await expect(page.locator('.react-flow__node')).toHaveCount(5);
+  await page.getByRole('button', { name: 'Fit to view' }).click();
+  await page.getByRole('button', { name: 'Arrange automatically' }).click();
+  await page.waitForTimeout(600);
+
+  await connect(page, 'prepare', 'next', 'reading1');
+  await connect(page, 'reading1', 'band:below', 'finding1');
+  await connect(page, 'reading1', 'band:within', 'observation1');
+  await connect(page, 'reading1', 'band:above', 'finding2');
+  await connect(page, 'observation1', 'answer:yes', 'finding2');
+  await connect(page, 'observation1', 'answer:no', 'finding1');
+  await expect(page.locator('.react-flow__edge-text', { hasText: 'Within limits' })).toBeVisible();
+  await page.getByRole('button', { name: 'Arrange automatically' }).click();
+  await expect(page.getByTestId('lint-counts')).toContainText('0 errors');
+
+  // open a gap between "Below" and "Within": 0.2 .. 0.3 Ω routes nowhere
+  await node(page, 'reading1').click();
+  await page.getByRole('tab', { name: 'Step' }).click();
+  await page.getByLabel('Band Within limits: lower end', { exact: true }).fill('0.3');
+  await expect(page.getByTestId('band-gap')).toBeVisible();
+  await page.getByRole('tab', { name: /Soundness/ }).click();
+  const gap = page.getByTestId('soundness-list').locator('[data-code="band-gap"]');
+  await expect(gap).toBeVisible();
+  await expect(page.getByTestId('lint-counts')).toContainText('1 error');
+  await shot(page, 'drafting-editor-band-gap');
+  await gap.click();
+  await page.getByRole('tab', { name: 'Step' }).click();
+  await page.getByLabel('Band Within limits: lower end', { exact: true }).fill('0.2');
+  await expect(page.getByTestId('lint-counts')).toContainText('0 errors');
+  await expect(page.getByTestId('band-gap')).toHaveCount(0);
+  await shot(page, 'drafting-editor');
+
+  // undo brings the gap back, redo removes it again
+  await page.getByTestId('canvas').click({ position: { x: 20, y: 20 } });
+  await page.keyboard.press('Control+z');
+  await expect(page.getByTestId('lint-counts')).toContainText('1 error');
+  await page.keyboard.press('Control+Shift+z');
+  await expect(page.getByTestId('lint-counts')).toContainText('0 errors');
+
+  // preview: walk it as a technician to a Finding
+  await page.getByRole('button', { name: 'Preview as a technician' }).click();
+  await page.getByTestId('preview-phone').getByRole('button', { name: 'Done' }).click();
+  await page.getByTestId('preview-phone').getByLabel(/Reading/).fill('0,5');
+  await page.getByTestId('preview-phone').getByRole('button', { name: 'Enter reading' }).click();
+  await page.getByTestId('preview-phone').getByRole('button', { name: 'Yes' }).click();
+  await expect(page.getByTestId('preview-ending')).toContainText('New finding');
+  await expect(node(page, 'finding2')).toHaveClass(/selected|/);
+  await shot(page, 'drafting-preview');
+  await page.getByRole('button', { name: 'Close preview' }).click();
+
+  await page.getByRole('button', { name: 'Send for review' }).click();
+  await expect(page.getByText('In review')).toBeVisible();
+  const url = page.url();
+
+  const leadContext = await browser.newContext({ viewport: { width: 1600, height: 1000 } });
+  const lead = await leadContext.newPage();
+  await signIn(lead, 'lead');
+  await lead.goto(url);
+  await expect(lead.getByTestId('diff-list').or(lead.getByText('Not published before'))).toBeVisible();
+  await lead.getByRole('textbox', { name: 'Comment' }).fill('Looks right; publish.');
+  await lead.getByRole('button', { name: 'Add comment' }).click();
+  await expect(lead.getByTestId('comments')).toContainText('Looks right; publish.');
+  await lead.getByRole('button', { name: 'Publish' }).click();
+  await expect(lead.getByText('Published', { exact: true })).toBeVisible();
+  await expect(lead.getByText('v1', { exact: true })).toBeVisible();
+  await shot(lead, 'drafting-published');
+  await leadContext.close();
+});
