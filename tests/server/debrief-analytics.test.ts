@@ -12,11 +12,14 @@ import { expectedChainSeconds, orderByRatio } from '@shared/engine/advisor';
 let env: TestEnv;
 let trainer: Client;
 let ids: { procedureId: string; versionId: string };
-let diagnoses: Record<string, any>[];
-let steps: Record<string, any>[];
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- raw rows of the direct computation
+let diagnoses: any[];
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
+let steps: any[];
 let shopId: string;
 
-const q = (sql: string, bind: unknown[] = []) => env.runtime.deps.sequelize.query<Record<string, any>>(sql, { bind, type: QueryTypes.SELECT });
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- raw rows of the direct computation
+const q = async (sql: string, bind: unknown[] = []): Promise<any[]> => env.runtime.deps.sequelize.query(sql, { bind, type: QueryTypes.SELECT });
 
 beforeAll(async () => {
   env = await startTestApp();

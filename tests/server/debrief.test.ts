@@ -15,7 +15,8 @@ let ids: { procedureId: string; versionId: string };
 let shopId: string;
 let techId: string;
 
-const q = (sql: string, bind: unknown[] = []) => env.runtime.deps.sequelize.query<Record<string, any>>(sql, { bind, type: QueryTypes.SELECT });
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- raw rows of the direct computation
+const q = async (sql: string, bind: unknown[] = []): Promise<any[]> => env.runtime.deps.sequelize.query(sql, { bind, type: QueryTypes.SELECT });
 
 beforeAll(async () => {
   env = await startTestApp();

@@ -1,0 +1,119 @@
+import { useMemo } from 'react';
+import { Link } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import {
+  useTable, tableFeatures, rowSortingFeature, rowPaginationFeature, type ColumnDef, type SortingState, type PaginationState,
+} from '@tanstack/react-table';
+import type { DiagnosisListQuery, DiagnosisRow } from '@shared/stats/debrief-schema';
+import { Badge, Card, PageHeader, Spinner, Alert } from '../../../components/ui/card';
+import { Button, buttonClass } from '../../../components/ui/button';
+import { cx } from '../../../components/ui/cx';
+import { debriefQueries, diagnosesCsvUrl } from '../api/queries';
+import { useDiagnosisFilters } from '../hooks/use-diagnosis-filters';
+import { DiagnosisFilters } from './diagnosis-filters';
+import { dateTime, formatDuration, STATUS_LABEL, STATUS_TONE } from '../lib/format';
+
+const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
+type Columns = ColumnDef<typeof features, DiagnosisRow>[];
+
+const columns: Columns = [
+  { id: 'startedAt', header: 'Started', accessorFn: (r) => r.startedAt,
+    cell: ({ row }) => <Link className="font-semibold text-ink underline underline-offset-4 hover:text-signal" to={`diagnoses/${row.original.id}`}>{dateTime(row.original.startedAt)}</Link> },
+  { id: 'procedure', header: 'Procedure', accessorFn: (r) => r.procedureTitle,
+    cell: ({ row }) => <span>{row.original.procedureTitle} <span className="text-ink-soft">v{row.original.versionNumber}</span></span> },
+  { id: 'vehicle', header: 'Vehicle', accessorFn: (r) => r.vehicleLabel,
+    cell: ({ row }) => <span title={row.original.vehicleModel}>{row.original.vehicleLabel}</span> },
+  { id: 'technician', header: 'Technician', accessorFn: (r) => r.technicianName },
+  { id: 'status', header: 'Status', accessorFn: (r) => r.status,
+    cell: ({ row }) => <Badge tone={STATUS_TONE[row.original.status]}>{STATUS_LABEL[row.original.status]}</Badge> },
+  { id: 'ending', header: 'Ended at', enableSorting: false, accessorFn: (r) => r.endingTitle ?? '',
+    cell: ({ row }) => <span>{row.original.endingTitle ?? '–'}</span> },
+  { id: 'duration', header: 'Duration', accessorFn: (r) => r.durationSeconds,
+    cell: ({ row }) => <span className="tabular-nums">{formatDuration(row.original.durationSeconds)}</span> },
+  { id: 'flags', header: 'Flags', enableSorting: false, accessorFn: () => '', cell: ({ row }) => <Flags row={row.original} /> },
+];
+
+function Flags({ row }: { row: DiagnosisRow }) {
+  const { borderline, takenBack, comeback } = row.flags;
+  if (!borderline && !takenBack && !comeback) return <span className="text-ink-soft">–</span>;
+  return (
+    <span className="flex flex-wrap gap-1">
+      {borderline && <Badge tone="edge">Borderline</Badge>}
+      {takenBack && <Badge tone="neutral">Taken back</Badge>}
+      {comeback && <Badge tone="stop">Came back</Badge>}
+    </span>
+  );
+}
+
+/** Every diagnosis of the shop: filtered, sorted and paged on the server. */
+export function DiagnosesPage() {
+  const [q, update] = useDiagnosisFilters();
+  const query = { ...q, page: q.page ?? 1, pageSize: q.pageSize ?? 25 };
+  const { data, isLoading, error, isFetching } = useQuery(debriefQueries.diagnoses(query));
+  const sorting: SortingState = [{ id: query.sort ?? 'startedAt', desc: (query.dir ?? 'desc') === 'desc' }];
+  const pagination: PaginationState = { pageIndex: query.page - 1, pageSize: query.pageSize };
+  const rows = useMemo(() => data?.rows ?? [], [data]);
+  const table = useTable({
+    features, columns, data: rows, manualSorting: true, manualPagination: true, rowCount: data?.total ?? 0,
+    state: { sorting, pagination },
+    onSortingChange: (u) => {
+      const next = typeof u === 'function' ? u(sorting) : u;
+      const s = next[0] ?? { id: 'startedAt', desc: true };
+      update({ sort: s.id as DiagnosisListQuery['sort'], dir: s.desc ? 'desc' : 'asc' });
+    },
+    onPaginationChange: (u) => {
+      const next = typeof u === 'function' ? u(pagination) : u;
+      update({ page: next.pageIndex + 1, pageSize: next.pageSize });
+    },
+  });
+  const pages = Math.max(1, Math.ceil((data?.total ?? 0) / query.pageSize));
+  return (
+    <>
+      <PageHeader title="Diagnoses" subtitle="Every diagnosis of the shop. Open one to replay it and leave a coaching note."
+        actions={<a className={buttonClass('secondary')} href={diagnosesCsvUrl(query)} download>Export CSV</a>} />
+      <Card className="mb-4"><DiagnosisFilters q={query} onChange={update} /></Card>
+      {error && <Alert title="The diagnoses could not be loaded">{(error as Error).message}</Alert>}
+      {isLoading ? <Spinner label="Loading diagnoses" /> : (
+        <div className={cx('overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel', isFetching && 'opacity-70')}>
+          <table className="w-full text-left">
+            <caption className="sr-only">Diagnoses, {data?.total ?? 0} in this selection</caption>
+            <thead className="bg-ink/5">
+              {table.getHeaderGroups().map((hg) => (
+                <tr key={hg.id}>
+                  {hg.headers.map((h) => {
+                    const sorted = h.column.getIsSorted();
+                    return (
+                      <th key={h.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                        className="px-3 py-2 text-sm font-bold uppercase tracking-wide text-ink-soft">
+                        {h.column.getCanSort() ? (
+                          <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-8 items-center gap-1 hover:text-ink">
+                            <table.FlexRender header={h} /><span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                          </button>
+                        ) : <table.FlexRender header={h} />}
+                      </th>
+                    );
+                  })}
+                </tr>
+              ))}
+            </thead>
+            <tbody>
+              {table.getRowModel().rows.map((row, i) => (
+                <tr key={row.id} className={cx('border-t border-line', i % 2 === 1 && 'bg-paper/60')}>
+                  {row.getAllCells().map((cell) => <td key={cell.id} className="px-3 py-2 align-middle"><table.FlexRender cell={cell} /></td>)}
+                </tr>
+              ))}
+              {rows.length === 0 && <tr><td colSpan={columns.length} className="px-3 py-8 text-center text-ink-soft">No diagnoses match these filters.</td></tr>}
+            </tbody>
+          </table>
+        </div>
+      )}
+      <nav className="mt-3 flex flex-wrap items-center justify-between gap-2" aria-label="Pages">
+        <p className="text-ink-soft">{data ? `${data.total.toLocaleString()} diagnoses · page ${query.page} of ${pages}` : ''}</p>
+        <div className="flex gap-2">
+          <Button variant="secondary" disabled={query.page <= 1} onClick={() => table.previousPage()}>Previous</Button>
+          <Button variant="secondary" disabled={query.page >= pages} onClick={() => table.nextPage()}>Next</Button>
+        </div>
+      </nav>
+    </>
+  );
+}

@@ -1,0 +1,55 @@
+import { useMemo } from 'react';
+import { ReactFlow, Background, Controls, Handle, Position, type Edge, type Node, type NodeProps } from '@xyflow/react';
+import '@xyflow/react/dist/style.css';
+import type { ProcedureDocument } from '@shared/schema';
+import { cx } from '../../../components/ui/cx';
+import { positions, type GraphEdge, type GraphNodeData } from '../lib/graph';
+
+// Read-only procedure graph for Debrief (lazy-loaded with React Flow). Heat and path use our
+// signal colour in five steps; endings keep the ISO 5807 terminal shape (rounded).
+
+const FILL = ['bg-panel', 'bg-signal-soft', 'bg-signal/30', 'bg-signal/55', 'bg-signal/80'];
+const EDGE = ['#d6d0c2', '#e9b98c', '#d98a45', '#c45a0c', '#8f3f06'];
+const KIND_WORD: Record<string, string> = {
+  reading: 'Reading', observation: 'Observation', task: 'Task', formula: 'Formula', finding: 'Finding', handoff: 'Hand-off',
+};
+
+function StepNode({ data }: NodeProps<Node<GraphNodeData>>) {
+  const ending = data.kind === 'finding' || data.kind === 'handoff';
+  return (
+    <div className={cx('w-52 border-2 px-3 py-2 text-ink shadow-sm', ending ? 'rounded-2xl' : 'rounded-md', FILL[data.level],
+      data.level >= 4 ? 'border-ink' : 'border-line', data.marked && 'ring-4 ring-edge')}>
+      <Handle type="target" position={Position.Top} className="!bg-ink-soft" />
+      <p className="text-xs font-bold uppercase tracking-wide text-ink-soft">{KIND_WORD[data.kind]}</p>
+      <p className="font-semibold leading-tight">{data.title}</p>
+      {data.caption && <p className="mt-1 text-xs text-ink">{data.caption}</p>}
+      <Handle type="source" position={Position.Bottom} className="!bg-ink-soft" />
+    </div>
+  );
+}
+
+const nodeTypes = { step: StepNode };
+
+export default function ProcedureGraph({ doc, graph, label, onSelect }: {
+  doc: ProcedureDocument;
+  graph: { nodes: { id: string; data: GraphNodeData }[]; edges: GraphEdge[] };
+  label: string;
+  onSelect?: (stepId: string) => void;
+}) {
+  const pos = useMemo(() => positions(doc), [doc]);
+  const nodes: Node<GraphNodeData>[] = graph.nodes.map((n) => ({ ...n, type: 'step', position: pos.get(n.id) ?? { x: 0, y: 0 }, draggable: false, connectable: false }));
+  const edges: Edge[] = graph.edges.map((e) => ({
+    id: e.id, source: e.source, target: e.target, label: e.label || undefined,
+    style: { stroke: EDGE[e.level], strokeWidth: 1.5 + e.level * 1.2 },
+    labelStyle: { fontSize: 12, fill: '#1d232c' }, labelBgStyle: { fill: '#f5f2ea' },
+  }));
+  return (
+    <div className="h-[34rem] rounded-[var(--radius-card)] border border-line bg-paper" role="figure" aria-label={label}>
+      <ReactFlow nodes={nodes} edges={edges} nodeTypes={nodeTypes} fitView minZoom={0.2} nodesDraggable={false} nodesConnectable={false}
+        elementsSelectable={Boolean(onSelect)} onNodeClick={onSelect ? (_e, n) => onSelect(n.id) : undefined}>
+        <Background gap={24} color="#e4ded0" />
+        <Controls showInteractive={false} />
+      </ReactFlow>
+    </div>
+  );
+}
