@@ -1,6 +1,7 @@
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import globals from 'globals';
+import reactHooks from 'eslint-plugin-react-hooks';
 
 const FEATURES = ['auth', 'bench', 'drafting', 'debrief', 'shop'];
 
@@ -32,6 +33,14 @@ export default tseslint.config(
       'no-eval': 'error',
       'no-new-func': 'error',
       'no-implied-eval': 'error',
+    },
+  },
+  {
+    files: ['src/**/*.{ts,tsx}'],
+    plugins: { 'react-hooks': reactHooks },
+    rules: {
+      'react-hooks/rules-of-hooks': 'error',
+      'react-hooks/exhaustive-deps': 'warn',
     },
   },
   {
