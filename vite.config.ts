@@ -31,6 +31,16 @@ export default defineConfig({
         navigateFallbackDenylist: [/^\/api\//],
         globPatterns: ['**/*.{js,css,html,svg,woff2}'],
         maximumFileSizeToCacheInBytes: 4 * 1024 * 1024,
+        // Bench: an open diagnosis must survive a reload without signal. The diagnosis itself is in
+        // IndexedDB; only "who am I" is needed to get past the sign-in guard, so that one answer is
+        // kept (network first, the cached copy only when the network fails).
+        runtimeCaching: [
+          {
+            urlPattern: ({ url, request }) => request.method === 'GET' && url.pathname === '/api/auth/me',
+            handler: 'NetworkFirst',
+            options: { cacheName: 'sw-session', networkTimeoutSeconds: 4, expiration: { maxEntries: 1 } },
+          },
+        ],
       },
     }),
   ],

@@ -1,5 +1,4 @@
 import { useCallback, useEffect, useMemo, useState } from 'react';
-import { upgradeProcedure } from '@shared/schema/upgrade';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import { commitLocal, getLocalDiagnosis, getVersion, type LocalDiagnosis, type LocalRow, type OutboxMessage } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
@@ -33,9 +32,10 @@ export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
       const d = await getLocalDiagnosis(id);
       if (!d) throw new Error('This diagnosis is not on this phone. Open it from the Bench home, or start a new one.');
       const v = await getVersion(d.versionId);
-      const up = upgradeProcedure(v?.document);
-      if (!up.ok) throw new Error('The procedure of this diagnosis is not on this phone. Connect once and open it again.');
-      if (live) { setDiagnosis(d); setDoc(withMeter(up.document, d.meterEntries)); }
+      // The server sends the document already upgraded and parsed; checking it again here would
+      // put the schema library into the phone's first download.
+      if (!v) throw new Error('The procedure of this diagnosis is not on this phone. Connect once and open it again.');
+      if (live) { setDiagnosis(d); setDoc(withMeter(v.document as ProcedureDocument, d.meterEntries)); }
     })().catch((e: unknown) => live && setError(e instanceof Error ? e.message : String(e))).finally(() => live && setLoading(false));
     return () => { live = false; };
   }, [id]);

@@ -1,0 +1,175 @@
+import { test, expect, type Page, type BrowserContext } from '@playwright/test';
+import { deflateSync } from 'node:zlib';
+import { signIn, shot, axe } from './helpers';
+
+// A technician's phone: narrow, touch. The demo "No spark" procedure is seeded as version 1.
+test.use({ viewport: { width: 360, height: 780 }, hasTouch: true });
+
+/** A real 64×48 PNG (solid amber) built in memory, so the photo upload sends true image bytes. */
+function pngBytes(): Buffer {
+  const crcTable = Array.from({ length: 256 }, (_, n) => { let c = n; for (let k = 0; k < 8; k++) c = c & 1 ? 0xedb88320 ^ (c >>> 1) : c >>> 1; return c >>> 0; });
+  const crc = (b: Buffer) => { let c = 0xffffffff; for (const x of b) c = crcTable[(c ^ x) & 0xff]! ^ (c >>> 8); return (c ^ 0xffffffff) >>> 0; };
+  const chunk = (type: string, data: Buffer) => {
+    const len = Buffer.alloc(4); len.writeUInt32BE(data.length);
+    const td = Buffer.concat([Buffer.from(type), data]);
+    const c = Buffer.alloc(4); c.writeUInt32BE(crc(td));
+    return Buffer.concat([len, td, c]);
+  };
+  const [w, h] = [64, 48];
+  const ihdr = Buffer.alloc(13); ihdr.writeUInt32BE(w, 0); ihdr.writeUInt32BE(h, 4); ihdr[8] = 8; ihdr[9] = 2;
+  const raw = Buffer.concat(Array.from({ length: h }, () => Buffer.concat([Buffer.from([0]), Buffer.from(Array.from({ length: w }, () => [0xf0, 0x8a, 0x24]).flat())])));
+  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)), chunk('IEND', Buffer.alloc(0))]);
+}
+
+/** Waits until the service worker controls the page, so the app shell is cached for offline use. */
+async function serviceWorkerReady(page: Page): Promise<void> {
+  await page.evaluate(async () => { await navigator.serviceWorker.ready; });
+  if (!(await page.evaluate(() => !!navigator.serviceWorker.controller))) await page.reload();
+  await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true);
+  await page.reload(); // fetch "who am I" once through the worker so it can answer it offline
+  await expect(page.getByRole('heading', { name: 'Bench' })).toBeVisible();
+}
+
+async function goOffline(context: BrowserContext, page: Page): Promise<void> {
+  await context.setOffline(true);
+  await page.route('**/api/**', (route) => route.abort('internetdisconnected'));
+}
+async function goOnline(context: BrowserContext, page: Page): Promise<void> {
+  await page.unroute('**/api/**');
+  await context.setOffline(false);
+}
+
+async function startNoSpark(page: Page): Promise<string> {
+  await page.getByRole('link', { name: 'Start a diagnosis' }).click();
+  await page.getByLabel('Symptom').fill('spark');
+  await page.getByRole('radio', { name: /^No spark/ }).check();
+  await page.getByLabel('Machine', { exact: true }).selectOption({ label: 'W-01 — Wren 50 two-stroke scooter' });
+  await page.getByLabel("Complaint in the customer's words").fill('It kicks over but never fires');
+  await shot(page, 'bench-start');
+  await page.getByRole('button', { name: 'Start the diagnosis' }).click();
+  await expect(page).toHaveURL(/\/bench\/d\/[0-9a-f-]{36}$/);
+  return page.url().split('/').pop()!;
+}
+
+async function reading(page: Page, label: string, text: string, understood: RegExp, verdict: RegExp): Promise<void> {
+  await page.getByLabel(label).fill(text);
+  await expect(page.getByTestId('understood')).toHaveText(understood);
+  await expect(page.getByTestId('verdict')).toContainText(verdict);
+}
+const save = (page: Page) => page.getByRole('button', { name: 'Save reading and continue' }).click();
+const crank = async (page: Page, answer: string) => {
+  await page.getByRole('button', { name: 'I have read this and will keep clear' }).click();
+  await page.getByRole('button', { name: answer }).click();
+};
+
+test('a technician runs "No spark" to a Finding, partly without signal, and the server gets every step once and in order', async ({ page, context, browser }) => {
+  test.setTimeout(240_000);
+  await signIn(page, 'tech');
+  await serviceWorkerReady(page);
+  await shot(page, 'bench-home');
+  const id = await startNoSpark(page);
+
+  await expect(page.getByRole('heading', { name: 'Prepare the machine' })).toBeVisible();
+  await expect(page.getByText("manufacturer's service data and local regulations come first").first()).toBeVisible();
+  await shot(page, 'bench-task');
+  await axe(page);
+  await page.getByRole('button', { name: 'Done' }).click();
+
+  await expect(page.getByRole('heading', { name: 'Spark test' })).toBeVisible();
+  await expect(page.getByRole('button', { name: 'No spark' })).toBeDisabled(); // DANGER first
+  await shot(page, 'bench-danger');
+  await page.getByRole('button', { name: 'I have read this and will keep clear' }).click();
+  await shot(page, 'bench-observation');
+  await page.getByRole('button', { name: 'No spark' }).click();
+
+  // No signal from here: every answer waits on the phone.
+  await goOffline(context, page);
+  await page.getByRole('button', { name: 'Done' }).click();
+  await crank(page, 'Still no spark');
+  await page.getByRole('button', { name: 'Letters keypad (for 4K7, R47, 2k1)' }).click();
+  await reading(page, 'Reading (kΩ)', '4K7', /4\.7 kΩ/, /Within limits/);
+  await shot(page, 'bench-reading');
+  await save(page);
+  await expect(page.getByTestId('sync-status')).toContainText('waiting to sync');
+
+  await page.reload(); // still offline: the service worker serves the app, IndexedDB the diagnosis
+  await expect(page.getByRole('heading', { name: 'CDI and coil ground' })).toBeVisible();
+  await shot(page, 'bench-offline-reload');
+  await reading(page, 'Reading (Ω)', '0,4', /0\.4 Ω/, /Within limits/);
+  await save(page);
+  await reading(page, 'Reading (°C)', '22', /22 °C/, /Within limits/);
+  await save(page);
+  // Change the temperature answer: the first one stays in the record, marked changed.
+  await page.getByRole('button', { name: 'Change Engine temperature' }).click();
+  await reading(page, 'Reading (°C)', '21', /21 °C/, /Within limits/);
+  await save(page);
+  await expect(page.getByRole('heading', { name: 'Coil primary resistance' })).toBeVisible();
+  await reading(page, 'Reading (Ω)', '0.5', /0\.5 Ω/, /Within limits/);
+  await save(page);
+  await reading(page, 'Reading (kΩ)', '3.5k', /3\.5 kΩ/, /Within limits/);
+  await save(page);
+
+  await goOnline(context, page);
+  await expect(page.getByTestId('computed')).toContainText('Secondary at 20 °C');
+  await shot(page, 'bench-formula');
+  await reading(page, 'Reading (Ω)', '2.1k', /2\.1 kΩ/, /Above limits/);
+  await save(page);
+
+  await expect(page.getByRole('heading', { name: 'Stator winding faulty' })).toBeVisible();
+  await page.getByLabel('Add a photo').setInputFiles({ name: 'stator.png', mimeType: 'image/png', buffer: pngBytes() });
+  await expect(page.getByRole('img', { name: 'Photo stator.png' })).toBeVisible();
+  await page.getByLabel('Lot / date code').first().fill('LOT-2611');
+  await page.getByLabel('Spark present at the tester').check();
+  await page.getByLabel('Engine starts and runs').check();
+  await page.getByLabel('Every stop path (kill switch, key) stops the engine').check();
+  await page.getByLabel('Labour time (minutes)').fill('55');
+  await shot(page, 'bench-finding');
+  await page.getByRole('button', { name: 'Finish the diagnosis' }).click();
+  await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
+
+  const rec = await (await page.request.get(`/api/diagnoses/${id}`)).json() as { status: string; steps: { id: string; seq: number; stepId: string; superseded: boolean; entered: string | null }[]; attachments: unknown[] };
+  expect(rec.status).toBe('finished');
+  expect(rec.steps.map((s) => [s.stepId, s.superseded])).toEqual([
+    ['prepare', false], ['sparkTest', false], ['isolateStop', false], ['sparkRetest', false], ['capOhms', false], ['groundCheck', false],
+    ['engineTemp', true], ['engineTemp', false], ['coilPrimary', false], ['coilSecondary', false], ['secondaryAt20', false],
+    ['exciterOhms', false], ['statorFaulty', false],
+  ]);
+  expect(rec.steps.map((s) => s.seq)).toEqual(rec.steps.map((_, i) => i + 1));
+  expect(new Set(rec.steps.map((s) => s.id)).size).toBe(rec.steps.length);
+  expect(rec.steps.filter((s) => s.entered).map((s) => s.entered)).toEqual(['4K7', '0,4', '22', '21', '0.5', '3.5k', '2.1k']);
+  expect(rec.attachments).toHaveLength(1);
+
+  await page.getByRole('link', { name: 'Open the record and report' }).click();
+  await expect(page.getByRole('list', { name: 'Timeline' })).toBeVisible();
+  await page.getByRole('button', { name: 'E-mail to the service desk' }).click();
+  await expect(page.getByText('Sent to desk@larkspur.test')).toBeVisible();
+  await shot(page, 'bench-record');
+
+  const adminContext = await browser.newContext();
+  const admin = await adminContext.newPage();
+  await signIn(admin, 'admin');
+  const mail = await (await admin.request.get('/api/shop/mail')).json() as { subject: string; to: string[] }[];
+  expect(mail.some((m) => m.subject.startsWith('Diagnosis report: W-01') && m.to.includes('desk@larkspur.test'))).toBe(true);
+  await adminContext.close();
+});
+
+test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', async ({ page, browser }) => {
+  test.setTimeout(120_000);
+  await signIn(page, 'tech');
+  await startNoSpark(page);
+  await page.getByRole('button', { name: 'Done' }).click();
+  await crank(page, 'Strong blue spark');
+  await expect(page.getByRole('heading', { name: 'Spark is present' })).toBeVisible();
+  await shot(page, 'bench-handoff');
+  await page.getByRole('button', { name: 'Hand off and notify the leads' }).click();
+  await expect(page.getByText('Handed off')).toBeVisible();
+  await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
+  const adminContext = await browser.newContext();
+  const admin = await adminContext.newPage();
+  await signIn(admin, 'admin');
+  await expect.poll(async () => {
+    const mail = await (await admin.request.get('/api/shop/mail')).json() as { subject: string; to: string[] }[];
+    return mail.some((m) => m.subject.startsWith('Hand-off: W-01') && m.to.includes('lead@larkspur.test'));
+  }).toBe(true);
+  await adminContext.close();
+});
