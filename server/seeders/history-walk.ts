@@ -159,7 +159,7 @@ export function walkTowardsFault(plan: WalkPlan, o: WalkOptions): Walk {
     if (reach && !reach.has(target) && reach.size) target = drawEnding(plan, o.rand, reach);
     const c = choose(plan, step, target, o.rand, o.bias);
     const alternatives = branchesOf(step).filter((b) => b.to !== c.branch.to);
-    if (takeBack && alternatives.length && o.rand() < 0.3) {
+    if (takeBack && alternatives.length && o.rand() < 0.4) {
       takeBack = false;
       const wrong = pick(o.rand, alternatives);
       steps.push(walked(step, { ...c, branch: wrong }, stepSeconds(plan, step, o.rand, o.speed), true));

@@ -121,6 +121,15 @@ function build(walk: Walk, version: Version, tech: Tech, vehicleId: string, at: 
       s.bandId, s.answerId, s.nextStepId, s.superseded, new Date(started).toISOString(), new Date(t).toISOString(), hash]);
     t += (5 + rand() * 25) * 1000;
   });
+  if (abandonAt < 0) {
+    // Bench records the ending too: the Finding or Hand-off screen answered with its outcome.
+    const end = version.plan.byId.get(walk.endingStepId)!;
+    const started = t;
+    t += (30 + rand() * 90) * 1000;
+    const hash = createHash('sha256').update(`${id}|${end.id}|end`).digest('hex');
+    steps.push([randomUUID(), id, steps.length + 1, end.id, end.kind, JSON.stringify({ title: end.title }), null, null, null, null,
+      null, null, null, false, new Date(started).toISOString(), new Date(t).toISOString(), hash]);
+  }
   const recent = now - at < 36 * 3_600_000;
   const status = abandonAt >= 0 ? (recent ? 'active' : 'abandoned') : walk.ending === 'finding' ? 'finished' : 'handed_off';
   const ending = abandonAt >= 0 ? walk.steps[abandonAt]!.stepId : walk.endingStepId;
@@ -153,7 +162,7 @@ export async function seedHistory(deps: Pick<AppDeps, 'sequelize'>, shopId: stri
     const built = visits.slice(i, i + batch).map((v) => {
       const version = pick(rand, versions);
       const tech = pick(rand, techs);
-      const walk = walkTowardsFault(version.plan, { rand, speed: tech.speed, bias: tech.bias, takeBackChance: 0.05 });
+      const walk = walkTowardsFault(version.plan, { rand, speed: tech.speed, bias: tech.bias, takeBackChance: 0.06 });
       return build(walk, version, tech, v.vehicleId, v.at, rand, now);
     });
     const stepRows = built.flatMap((b) => b.s);

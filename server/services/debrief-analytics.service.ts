@@ -4,15 +4,16 @@ import { resolveLimits } from '@shared/measure/verdict';
 import type {
   BranchFigure, DiagnosisStatus, FindingsAnalytics, Quart, ReadingFigure, ReadingsAnalytics, StepFigure, StepsAnalytics, TimesAnalytics,
 } from '@shared/stats/debrief-schema';
-import { SCOPED, comebackDays, num, numOrNull, scopeBinds, type Scope, type Sql } from './debrief-scope';
+import { SCOPED, STEP_SCOPE, comebackDays, num, numOrNull, scopeBinds, type Scope, type Sql } from './debrief-scope';
 
 // Debrief analytics, all aggregated in PostgreSQL over the scoped diagnoses (see SCOPED): only
 // counts, shares and quantiles come back to Node, never the rows themselves.
 // Quantiles: percentile_cont is the Hyndman & Fan (1996) type 7 sample quantile.
 
 const STEPS_ON_PATH = `s AS (
-  SELECT ds.diagnosis_id, ds.step_id, ds.band_id, ds.answer_id, ds.value, ds.verdict, ds.kind, ds.started_at, ds.answered_at
-  FROM diagnosis_steps ds JOIN d ON d.id = ds.diagnosis_id WHERE NOT ds.superseded)`;
+  SELECT ds.diagnosis_id, ds.step_id, ds.band_id, ds.answer_id, ds.value, ds.verdict, ds.kind, ds.started_at, ds.answered_at,
+    ds.dx_technician_id AS technician_id
+  FROM diagnosis_steps ds WHERE ${STEP_SCOPE} AND NOT ds.superseded)`;
 
 const quart = (r: Record<string, unknown>): Quart => {
   const q = (r.q as (number | string | null)[] | null) ?? [null, null, null];
@@ -30,27 +31,26 @@ export function handleOf(bandId: unknown, answerId: unknown): string {
 /** Per step: how many diagnoses reached it and how many ended there; per branch: the share taken. */
 export async function stepsAnalytics(sql: Sql, scope: Scope): Promise<StepsAnalytics> {
   const b = scopeBinds(scope);
-  const [reached, ended, branches, [total]] = await Promise.all([
+  const [reached, ended, branches] = await Promise.all([
     sql(`WITH ${SCOPED}, ${STEPS_ON_PATH}
       SELECT step_id, count(*) AS n FROM (
         SELECT diagnosis_id, step_id FROM s UNION SELECT id, ending_step_id FROM d WHERE ending_step_id IS NOT NULL) x
       GROUP BY step_id`, b),
-    sql(`WITH ${SCOPED} SELECT ending_step_id AS step_id, status, count(*) AS n FROM d
-      WHERE ending_step_id IS NOT NULL AND status <> 'active' GROUP BY 1, 2`, b),
-    sql(`WITH ${SCOPED}, ${STEPS_ON_PATH} SELECT step_id, band_id, answer_id, count(*) AS n FROM s GROUP BY 1, 2, 3`, b),
-    sql(`WITH ${SCOPED} SELECT count(*) AS n FROM d`, b),
+    sql(`WITH ${SCOPED} SELECT ending_step_id AS step_id, status, count(*) AS n FROM d GROUP BY 1, 2`, b),
+    sql(`WITH ${STEPS_ON_PATH} SELECT step_id, band_id, answer_id, count(*) AS n FROM s GROUP BY 1, 2, 3`, b),
   ]);
+  const total = ended.reduce((a, r) => a + num(r.n), 0);
   const figures = new Map<string, StepFigure>();
   const fig = (id: string) => figures.get(id) ?? figures.set(id, { stepId: id, reached: 0, finished: 0, handedOff: 0, abandoned: 0, active: 0 }).get(id)!;
   for (const r of reached) fig(String(r.step_id)).reached = num(r.n);
   const key: Record<string, keyof StepFigure> = { finished: 'finished', handed_off: 'handedOff', abandoned: 'abandoned' };
-  for (const r of ended) (fig(String(r.step_id)) as unknown as Record<string, number>)[key[String(r.status)]!] = num(r.n);
+  for (const r of ended.filter((e) => e.step_id !== null && e.status !== 'active')) (fig(String(r.step_id)) as unknown as Record<string, number>)[key[String(r.status)]!] = num(r.n);
   const perStep = new Map<string, number>();
   for (const r of branches) perStep.set(String(r.step_id), (perStep.get(String(r.step_id)) ?? 0) + num(r.n));
   const branchFigures: BranchFigure[] = branches.map((r) => ({
     from: String(r.step_id), handle: handleOf(r.band_id, r.answer_id), count: num(r.n), share: num(r.n) / perStep.get(String(r.step_id))!,
   }));
-  return { diagnoses: num(total?.n), steps: [...figures.values()], branches: branchFigures };
+  return { diagnoses: total, steps: [...figures.values()], branches: branchFigures };
 }
 
 /** Share of each ending, and first-time fix: finished with no comeback of the vehicle within N days. */
@@ -78,9 +78,8 @@ export async function findingsAnalytics(sql: Sql, scope: Scope): Promise<Finding
 /** Per Reading step: a histogram against the limits, the borderline share, and values by technician. */
 export async function readingsAnalytics(sql: Sql, scope: Scope): Promise<ReadingsAnalytics> {
   const b = scopeBinds(scope);
-  const readings = `r AS (SELECT s.step_id, s.value, s.verdict, d.technician_id FROM d JOIN diagnosis_steps s ON s.diagnosis_id = d.id
-    WHERE NOT s.superseded AND s.kind = 'reading' AND s.value IS NOT NULL)`;
-  const byTech = await sql(`WITH ${SCOPED}, ${readings}
+  const readings = `r AS (SELECT step_id, value, verdict, technician_id FROM s WHERE kind = 'reading' AND value IS NOT NULL)`;
+  const byTech = await sql(`WITH ${STEPS_ON_PATH}, ${readings}
     SELECT r.step_id, r.technician_id, u.name, count(*) AS n, min(value) AS lo, max(value) AS hi,
       count(*) FILTER (WHERE verdict IN ('borderline-low', 'borderline-high')) AS borderline,
       percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY value) AS q
@@ -97,7 +96,7 @@ export async function readingsAnalytics(sql: Sql, scope: Scope): Promise<Reading
     specs.set(id, binSpec({ min: lo, max: hi }, limits, 20));
   }
   const ids = [...specs.keys()];
-  const bins = ids.length ? await sql(`WITH ${SCOPED}, ${readings}, spec AS (
+  const bins = ids.length ? await sql(`WITH ${STEPS_ON_PATH}, ${readings}, spec AS (
       SELECT * FROM unnest($5::text[], $6::float8[], $7::float8[], $8::int[]) AS t(step_id, lo, hi, cnt))
     SELECT r.step_id, LEAST(GREATEST(width_bucket(r.value, spec.lo, spec.hi, spec.cnt), 1), spec.cnt) AS bin, count(*) AS n
     FROM r JOIN spec ON spec.step_id = r.step_id GROUP BY 1, 2`,
@@ -126,7 +125,7 @@ export async function readingsAnalytics(sql: Sql, scope: Scope): Promise<Reading
 export async function timesAnalytics(sql: Sql, scope: Scope): Promise<TimesAnalytics> {
   const b = scopeBinds(scope);
   const [steps, [whole]] = await Promise.all([
-    sql(`WITH ${SCOPED}, ${STEPS_ON_PATH} SELECT step_id, count(*) AS n,
+    sql(`WITH ${STEPS_ON_PATH} SELECT step_id, count(*) AS n,
       percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM answered_at - started_at)) AS q
       FROM s GROUP BY step_id`, b),
     sql(`WITH ${SCOPED} SELECT count(*) AS n,

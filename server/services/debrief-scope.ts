@@ -77,6 +77,10 @@ export const SCOPED = `d AS (
   SELECT id, status, ending_step_id, started_at, ended_at, technician_id, vehicle_id FROM diagnoses
   WHERE shop_id = $1 AND procedure_version_id = ANY($2::uuid[]) AND started_at >= $3::timestamptz AND started_at < $4::timestamptz)`;
 
+/** The same scope on step rows, through the columns the debrief-02 migration copies onto them. */
+export const STEP_SCOPE = `ds.shop_id = $1 AND ds.dx_version_id = ANY($2::uuid[])
+  AND ds.dx_started_at >= $3::timestamptz AND ds.dx_started_at < $4::timestamptz`;
+
 export const scopeBinds = (s: Scope): unknown[] => [s.shopId, s.versionIds, s.from, s.to];
 
 export const num = (v: unknown): number => Number(v ?? 0);

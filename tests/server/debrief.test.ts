@@ -35,7 +35,10 @@ describe('the diagnoses table', () => {
     expect(res.body.rows).toHaveLength(20);
     const times = res.body.rows.map((r: { startedAt: string }) => r.startedAt);
     expect([...times].sort().reverse()).toEqual(times);
-    expect(res.body.rows[0]).toMatchObject({ procedureTitle: 'Debrief fixture: no spark', versionNumber: 1 });
+    const mine = await trainer.get(`/api/debrief/diagnoses?procedureId=${ids.procedureId}&pageSize=200`).expect(200);
+    const [{ n }] = await q(`SELECT count(*)::int AS n FROM diagnoses WHERE procedure_version_id = $1`, [ids.versionId]);
+    expect(mine.body.total).toBe(n);
+    expect(mine.body.rows.every((r: { procedureTitle: string; versionNumber: number }) => r.procedureTitle === 'Debrief fixture: no spark' && r.versionNumber === 1)).toBe(true);
   });
 
   it('filters by status and flag and sorts by duration on the server', async () => {
@@ -98,18 +101,21 @@ describe('who sees what', () => {
 
 describe('replaying a diagnosis and coaching', () => {
   it('the replay has the timeline with superseded answers, the path without them, and the document', async () => {
-    const [d] = await q(`SELECT diagnosis_id AS id FROM diagnosis_steps WHERE superseded LIMIT 1`);
+    const [d] = await q(`SELECT s.diagnosis_id AS id, v.document->>'start' AS start FROM diagnosis_steps s
+      JOIN diagnoses d ON d.id = s.diagnosis_id JOIN procedure_versions v ON v.id = d.procedure_version_id WHERE s.superseded LIMIT 1`);
     const res = await trainer.get(`/api/debrief/diagnoses/${d!.id}`).expect(200);
     const rows = await q(`SELECT step_id, superseded FROM diagnosis_steps WHERE diagnosis_id = $1 ORDER BY seq`, [d!.id]);
     expect(res.body.steps.map((s: { stepId: string }) => s.stepId)).toEqual(rows.map((r) => r.step_id));
     expect(res.body.steps.some((s: { superseded: boolean }) => s.superseded)).toBe(true);
-    expect(res.body.path.slice(0, -1)).toEqual(rows.filter((r) => !r.superseded).map((r) => r.step_id));
-    expect(res.body.document.start).toBe('prepare');
+    const onPath = rows.filter((r) => !r.superseded).map((r) => r.step_id);
+    const [{ ending }] = await q(`SELECT ending_step_id AS ending FROM diagnoses WHERE id = $1`, [d!.id]);
+    expect(res.body.path).toEqual(ending && onPath[onPath.length - 1] !== ending ? [...onPath, ending] : onPath);
+    expect(res.body.document.start).toBe(d!.start);
     expect(res.body.diagnosis.flags.takenBack).toBe(true);
   });
 
   it('a trainer adds a note on a step; the technician who ran the diagnosis reads it', async () => {
-    const [d] = await q(`SELECT id FROM diagnoses WHERE technician_id = $1 AND status = 'finished' LIMIT 1`, [techId]);
+    const [d] = await q(`SELECT id FROM diagnoses WHERE technician_id = $1 AND status = 'finished' AND procedure_version_id = $2 LIMIT 1`, [techId, ids.versionId]);
     const note = await trainer.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: 'Null the leads before the primary reading.', stepId: 'coilPrimary' }).expect(201);
     expect(note.body).toMatchObject({ stepId: 'coilPrimary', authorName: 'Jordan Trainer' });
     await lead.post(`/api/debrief/diagnoses/${d!.id}/coaching-notes`, { body: 'Good finding.' }).expect(201);
