@@ -1,5 +1,6 @@
 import type { ProcedureDocument, Step } from '../schema/procedure';
-import { depthFirst, isBackEdge, stronglyConnected } from './algorithms';
+import { branchesOf } from '../schema/branches';
+import { depthFirst, isBackEdge, stronglyConnected, type DepthFirst } from './algorithms';
 import { buildGraph, type ProcedureGraph } from './graph';
 import { expectedToEnding } from './markov';
 
@@ -32,8 +33,11 @@ export interface PathFigures {
   readonly longest: PathLength | null;
   /** Expected steps and minutes from the start; null when an ending may never be reached. */
   readonly expected: PathLength | null;
-  /** Expected figures from every step, for the Bench progress indicator (Infinity when stuck). */
-  readonly perStep: Readonly<Record<string, StepFigures>>;
+  /**
+   * Expected figures from any step, for the Bench progress indicator (Infinity when an ending
+   * may never be reached; null for an unknown id). A function, so 20 000 steps cost no objects.
+   */
+  readonly perStep: (stepId: string) => StepFigures | null;
   readonly hasLoops: boolean;
   /** False if the iterative solver stopped before its tolerance (figures are then approximate). */
   readonly converged: boolean;
@@ -50,11 +54,12 @@ function branchProbabilities(g: ProcedureGraph, options: PathFiguresOptions): Fl
   const prior = options.prior ?? 1;
   for (let v = 0; v < g.size; v++) {
     const counts = options.branchCounts?.[g.steps[v]!.id];
+    const branches = counts || hasBorderline(g.steps[v]!) ? branchesOf(g.steps[v]!).filter((b) => g.index.has(b.to)) : null;
     let total = 0;
     for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) {
-      const b = g.edgeBranch[e]!;
+      const b = branches?.[e - g.outStart[v]!];
       // The borderline branch is the exception: it gets no share until diagnoses have taken it.
-      const w = (counts?.[b.handle] ?? 0) + (b.kind === 'borderline' ? 0 : prior);
+      const w = (b ? (counts?.[b.handle] ?? 0) : 0) + (b?.kind === 'borderline' ? 0 : prior);
       p[e] = w;
       total += w;
     }
@@ -64,40 +69,45 @@ function branchProbabilities(g: ProcedureGraph, options: PathFiguresOptions): Fl
   return p;
 }
 
+function hasBorderline(step: Step): boolean {
+  return step.kind === 'reading' && step.borderline.action === 'branch';
+}
+
 /** Binary-heap Dijkstra over step costs (node weights ≥ 0) from the start to the nearest ending. */
 function cheapestToEnding(g: ProcedureGraph, cost: Float64Array): number | null {
   const dist = new Float64Array(g.size).fill(Infinity);
-  const heap: [number, number][] = [];
-  const push = (d: number, v: number) => {
-    heap.push([d, v]);
-    for (let i = heap.length - 1; i > 0; ) {
-      const parent = (i - 1) >> 1;
-      if (heap[parent]![0] <= heap[i]![0]) break;
-      [heap[parent], heap[i]] = [heap[i]!, heap[parent]!];
-      i = parent;
-    }
+  // Lazy-deletion heap in two typed arrays: at most one entry per relaxed edge plus the start.
+  const keys = new Float64Array(g.targets.length + 1);
+  const nodes = new Int32Array(g.targets.length + 1);
+  let size = 0;
+  const swap = (i: number, j: number) => {
+    [keys[i], keys[j]] = [keys[j]!, keys[i]!];
+    [nodes[i], nodes[j]] = [nodes[j]!, nodes[i]!];
   };
-  const pop = (): [number, number] => {
-    const top = heap[0]!;
-    const last = heap.pop()!;
-    if (heap.length) {
-      heap[0] = last;
-      for (let i = 0; ; ) {
-        const l = 2 * i + 1, r = l + 1;
-        let m = i;
-        if (l < heap.length && heap[l]![0] < heap[m]![0]) m = l;
-        if (r < heap.length && heap[r]![0] < heap[m]![0]) m = r;
-        if (m === i) break;
-        [heap[m], heap[i]] = [heap[i]!, heap[m]!];
-        i = m;
-      }
+  const push = (d: number, v: number) => {
+    let i = size++;
+    keys[i] = d;
+    nodes[i] = v;
+    while (i > 0 && keys[(i - 1) >> 1]! > keys[i]!) swap(i, (i - 1) >> 1), (i = (i - 1) >> 1);
+  };
+  const pop = () => {
+    swap(0, --size);
+    for (let i = 0; ; ) {
+      const l = 2 * i + 1;
+      let m = i;
+      if (l < size && keys[l]! < keys[m]!) m = l;
+      if (l + 1 < size && keys[l + 1]! < keys[m]!) m = l + 1;
+      if (m === i) break;
+      swap(i, m);
+      i = m;
     }
-    return top;
   };
   dist[g.start] = cost[g.start]!;
   push(dist[g.start]!, g.start);
-  while (heap.length) {
-    const [d, v] = pop();
+  while (size > 0) {
+    const d = keys[0]!;
+    const v = nodes[0]!;
+    pop();
     if (d > dist[v]!) continue;
     if (g.ending[v]) return d;
     for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) {
@@ -109,8 +119,7 @@ function cheapestToEnding(g: ProcedureGraph, cost: Float64Array): number | null 
 }
 
 /** Longest loop-free path to an ending, in the graph with loop-closing branches dropped. */
-function longestToEnding(g: ProcedureGraph, cost: Float64Array): number | null {
-  const dfs = depthFirst(g, g.start);
+function longestToEnding(g: ProcedureGraph, dfs: DepthFirst, cost: Float64Array): number | null {
   const best = new Float64Array(g.size).fill(-Infinity);
   let answer = -Infinity;
   if (g.start >= 0) best[g.start] = cost[g.start]!;
@@ -128,23 +137,27 @@ function longestToEnding(g: ProcedureGraph, cost: Float64Array): number | null {
  * Shortest, longest and expected path to an ending, and expected steps/minutes left from every
  * step, by an absorbing Markov chain over the branches (uniform, or from recorded counts).
  * Example: `pathFigures(doc).expected` → `{ steps: 7.5, minutes: 14 }`;
- * `pathFigures(doc).perStep.coilPrimary.expectedSteps` → 4.
+ * `pathFigures(doc).perStep('coilPrimary')?.expectedSteps` → 4.
  */
 export function pathFigures(doc: ProcedureDocument, options: PathFiguresOptions = {}): PathFigures {
   const g = buildGraph(doc);
   const ones = new Float64Array(g.size).fill(1);
-  const minutes = Float64Array.from(g.steps, (s) => stepMinutes(s, doc.meta.minutesPerStep));
+  const minutes = new Float64Array(g.size);
+  for (let v = 0; v < g.size; v++) minutes[v] = stepMinutes(g.steps[v]!, doc.meta.minutesPerStep);
   const probability = branchProbabilities(g, options);
   const scc = stronglyConnected(g);
-  const bySteps = expectedToEnding({ graph: g, probability, cost: ones }, scc);
-  const byMinutes = expectedToEnding({ graph: g, probability, cost: minutes }, scc);
-  const perStep: Record<string, StepFigures> = {};
-  g.steps.forEach((s, v) => (perStep[s.id] = { expectedSteps: bySteps.expected[v]!, expectedMinutes: byMinutes.expected[v]! }));
+  const dfs = depthFirst(g, g.start);
+  const bySteps = expectedToEnding({ graph: g, probability, cost: ones }, scc, dfs.order);
+  const byMinutes = expectedToEnding({ graph: g, probability, cost: minutes }, scc, dfs.order);
+  const perStep = (stepId: string): StepFigures | null => {
+    const v = g.index.get(stepId);
+    return v === undefined ? null : { expectedSteps: bySteps.expected[v]!, expectedMinutes: byMinutes.expected[v]! };
+  };
   const pair = (a: number | null, b: number | null): PathLength | null => (a === null || b === null ? null : { steps: a, minutes: b });
   const startOk = g.start >= 0 && Number.isFinite(bySteps.expected[g.start]!);
   return {
     shortest: g.start < 0 ? null : pair(cheapestToEnding(g, ones), cheapestToEnding(g, minutes)),
-    longest: g.start < 0 ? null : pair(longestToEnding(g, ones), longestToEnding(g, minutes)),
+    longest: g.start < 0 ? null : pair(longestToEnding(g, dfs, ones), longestToEnding(g, dfs, minutes)),
     expected: startOk ? { steps: bySteps.expected[g.start]!, minutes: byMinutes.expected[g.start]! } : null,
     perStep,
     hasLoops: Array.prototype.some.call(scc.cyclic, (c: number) => c === 1),

@@ -13,10 +13,11 @@ export interface ProcedureGraph {
   /** −1 when the start step does not exist. */
   readonly start: number;
   readonly ending: Uint8Array;
-  /** Out-edges of v: targets[outStart[v] .. outStart[v + 1]), with their branch. */
+  /** Out-edges of v: targets[outStart[v] .. outStart[v + 1]). */
   readonly outStart: Int32Array;
   readonly targets: Int32Array;
-  readonly edgeBranch: readonly Branch[];
+  /** The branch behind edge e (label, handle, kind); built on demand. */
+  readonly edgeBranch: (e: number) => Branch;
   /** In-edges of v: sources[inStart[v] .. inStart[v + 1]). */
   readonly inStart: Int32Array;
   readonly sources: Int32Array;
@@ -40,40 +41,74 @@ function buildIndex(doc: ProcedureDocument): { steps: Step[]; index: Map<string,
   return { steps, index, duplicates: [...duplicates] };
 }
 
+/** Calls `visit(to, local)` for each branch of a step, in `branchesOf` order, without allocating. */
+function forEachTarget(step: Step, visit: (to: string, local: number) => void): void {
+  let i = 0;
+  switch (step.kind) {
+    case 'reading':
+      for (const b of step.bands) visit(b.next, i++);
+      if (step.borderline.action === 'branch') visit(step.borderline.next, i);
+      return;
+    case 'formula':
+      for (const b of step.bands) visit(b.next, i++);
+      if (step.next !== undefined) visit(step.next, i);
+      return;
+    case 'observation':
+      for (const a of step.answers) visit(a.next, i++);
+      return;
+    case 'task':
+      if (step.next !== undefined) visit(step.next, 0);
+      return;
+    default:
+      return;
+  }
+}
+
 /** Compiles a document once; the soundness check, the walker's helpers and path figures share it. */
 export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
   const { steps, index, duplicates } = buildIndex(doc);
   const n = steps.length;
   const outStart = new Int32Array(n + 1);
-  const edges: Branch[] = [];
-  const targetList: number[] = [];
-  const dangling: Branch[] = [];
+  let capacity = 0;
+  for (const step of steps) forEachTarget(step, () => capacity++);
+  const targetBuffer = new Int32Array(capacity);
+  const localBuffer = new Int32Array(capacity);
+  const danglingFrom: number[] = [];
   const ending = new Uint8Array(n);
+  let m = 0;
   for (let v = 0; v < n; v++) {
     const step = steps[v]!;
     ending[v] = isEnding(step) ? 1 : 0;
-    outStart[v] = edges.length;
-    for (const b of branchesOf(step)) {
-      const w = index.get(b.to);
-      if (w === undefined) dangling.push(b);
-      else {
-        edges.push(b);
-        targetList.push(w);
-      }
-    }
+    outStart[v] = m;
+    forEachTarget(step, (to, local) => {
+      const w = index.get(to);
+      if (w === undefined) danglingFrom.push(v);
+      else (targetBuffer[m] = w), (localBuffer[m++] = local);
+    });
   }
-  outStart[n] = edges.length;
-  const targets = Int32Array.from(targetList);
+  outStart[n] = m;
+  const targets = targetBuffer.slice(0, m);
   const inStart = new Int32Array(n + 1);
   for (const w of targets) inStart[w + 1]!++;
   for (let v = 0; v < n; v++) inStart[v + 1]! += inStart[v]!;
   const fill = inStart.slice(0, n);
-  const sources = new Int32Array(targets.length);
+  const sources = new Int32Array(m);
   for (let v = 0; v < n; v++) {
     for (let e = outStart[v]!; e < outStart[v + 1]!; e++) sources[fill[targets[e]!]!++] = v;
   }
-  return {
-    size: n, steps, index, start: index.get(doc.start) ?? -1, ending,
-    outStart, targets, edgeBranch: edges, inStart, sources, dangling, duplicates,
+  const dangling = [...new Set(danglingFrom)].flatMap((v) => branchesOf(steps[v]!).filter((b) => !index.has(b.to)));
+  // Branch objects (labels, handles) are built only when asked for: most callers need targets only.
+  const edgeBranch = (e: number): Branch => {
+    let v = 0;
+    let lo = 0;
+    let hi = n - 1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      if (outStart[mid]! <= e) (v = mid), (lo = mid + 1);
+      else hi = mid - 1;
+    }
+    while (v < n && outStart[v + 1]! <= e) v++;
+    return branchesOf(steps[v]!)[localBuffer[e]!]!;
   };
+  return { size: n, steps, index, start: index.get(doc.start) ?? -1, ending, outStart, targets, edgeBranch, inStart, sources, dangling, duplicates };
 }

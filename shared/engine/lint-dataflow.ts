@@ -36,7 +36,7 @@ function lintFormula(g: ProcedureGraph, dom: Dominators, step: FormulaStep, v: n
     }
   }
   if (out.length > 0) return out;
-  const units = evaluateFormula(step.expression, dummy, { expect: step.quantity });
+  const units = evaluateFormula(step.expression, dummy, { expect: step.quantity, parsed });
   if (!units.ok && units.error.code !== 'math') {
     const code = units.error.code === 'unit-mismatch' ? 'formula-units' : 'formula-invalid';
     out.push(finding(code, 'error', [step.id], `The formula of ${named(step)}: ${units.error.message}`));

@@ -85,26 +85,28 @@ function lintSafety(step: Step): LintFinding[] {
     `${named(step)} involves ${step.hazards.join(', ').replace(/-/g, ' ')} but has no DANGER, WARNING or CAUTION note; add one that says how to stay safe.`)];
 }
 
-/** Checks that look at one step at a time. */
-export function lintStep(step: Step): LintFinding[] {
-  const out = lintSafety(step);
+/** Checks that look at one step at a time; findings are pushed onto `out`. */
+export function lintStep(step: Step, out: LintFinding[]): void {
+  if (step.hazards.length > 0) out.push(...lintSafety(step));
   switch (step.kind) {
     case 'reading':
-      return [...out, ...lintReading(step)];
+      out.push(...lintReading(step));
+      return;
     case 'formula':
-      return [...out, ...lintFormulaShape(step)];
+      out.push(...lintFormulaShape(step));
+      return;
     case 'observation':
       out.push(...duplicateHandles(step, step.answers.map((a) => a.id), 'answers'));
       if (step.answers.length === 1) {
         out.push(finding('single-answer', 'warning', [step.id], `${named(step)} offers only one answer; make it a Task, or add the other answers.`));
       }
-      return out;
+      return;
     case 'finding':
       if (step.repair.trim() === '') {
         out.push(finding('finding-without-repair', 'warning', [step.id], `The Finding ${named(step)} does not say what to repair; add the repair.`));
       }
-      return out;
+      return;
     default:
-      return out;
+      return;
   }
 }

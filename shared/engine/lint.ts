@@ -25,7 +25,7 @@ export function lintProcedure(doc: ProcedureDocument, options: LintOptions = {})
   const g = buildGraph(doc);
   const dfs = depthFirst(g, g.start);
   const all: LintFinding[] = [...lintStructure(g, doc.start), ...lintReachability(g, dfs)];
-  for (const step of g.steps) all.push(...lintStep(step));
+  for (const step of g.steps) lintStep(step, all);
   all.push(...lintDataflow(g, dominators(g, dfs)));
   const limit = options.longPathSteps ?? 40;
   const longest = longestLoopFreePath(g, dfs);

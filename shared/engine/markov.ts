@@ -1,4 +1,4 @@
-import { reach, stronglyConnected, type Components } from './algorithms';
+import { depthFirst, reach, stronglyConnected, type Components } from './algorithms';
 import type { ProcedureGraph } from './graph';
 
 /**
@@ -39,20 +39,37 @@ function almostSurelyAbsorbed(g: ProcedureGraph, p: Float64Array): Uint8Array {
 
 function positiveEdges(g: ProcedureGraph, p: Float64Array): Pick<ProcedureGraph, 'outStart' | 'targets' | 'inStart' | 'sources'> {
   const outStart = new Int32Array(g.size + 1);
-  const targets: number[] = [];
+  const buffer = new Int32Array(g.targets.length);
+  let m = 0;
   for (let v = 0; v < g.size; v++) {
-    outStart[v] = targets.length;
+    outStart[v] = m;
     if (g.ending[v]) continue;
-    for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) if (p[e]! > 0) targets.push(g.targets[e]!);
+    for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) if (p[e]! > 0) buffer[m++] = g.targets[e]!;
   }
-  outStart[g.size] = targets.length;
+  outStart[g.size] = m;
+  const targets = buffer.subarray(0, m);
   const inStart = new Int32Array(g.size + 1);
   for (const w of targets) inStart[w + 1]!++;
   for (let v = 0; v < g.size; v++) inStart[v + 1]! += inStart[v]!;
   const fill = inStart.slice(0, g.size);
-  const sources = new Int32Array(targets.length);
+  const sources = new Int32Array(m);
   for (let v = 0; v < g.size; v++) for (let e = outStart[v]!; e < outStart[v + 1]!; e++) sources[fill[targets[e]!]!++] = v;
-  return { outStart, targets: Int32Array.from(targets), inStart, sources };
+  return { outStart, targets, inStart, sources };
+}
+
+/** A step outside any loop (or looping only on itself): one substitution. */
+function solveSingle(v: number, input: ChainInput, t: Float64Array): number {
+  const g = input.graph;
+  let self = 0;
+  let sum = input.cost[v]!;
+  for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) {
+    const p = input.probability[e]!;
+    if (p === 0) continue;
+    const w = g.targets[e]!;
+    if (w === v) self += p;
+    else sum += p * t[w]!;
+  }
+  return sum / (1 - self);
 }
 
 /** Solves the component's equations exactly: (I − P_cc)·t = cost + P_out·t_out. */
@@ -120,21 +137,44 @@ export interface ChainResult {
 }
 
 /** Expected cost from every step to an ending. */
-export function expectedToEnding(input: ChainInput, scc: Components = stronglyConnected(input.graph)): ChainResult {
+export function expectedToEnding(
+  input: ChainInput,
+  scc: Components = stronglyConnected(input.graph),
+  order: Int32Array = depthFirst(input.graph, input.graph.start).order,
+): ChainResult {
   const g = input.graph;
   const t = new Float64Array(g.size);
   const ok = almostSurelyAbsorbed(g, input.probability);
-  const members: number[][] = Array.from({ length: scc.count }, () => []);
-  for (let v = 0; v < g.size; v++) members[scc.comp[v]!]!.push(v);
+  // Steps grouped by component (counting sort). Within a component, Gauss–Seidel converges in a
+  // few sweeps when a step is updated after the steps it leads to: depth-first postorder gives
+  // that for every branch except the ones that close a loop.
+  const compStart = new Int32Array(scc.count + 1);
+  for (let v = 0; v < g.size; v++) compStart[scc.comp[v]! + 1]!++;
+  for (let c = 0; c < scc.count; c++) compStart[c + 1]! += compStart[c]!;
+  const fill = compStart.slice(0, scc.count);
+  const byComp = new Int32Array(g.size);
+  const placed = new Uint8Array(g.size);
+  const put = (v: number) => ((placed[v] = 1), (byComp[fill[scc.comp[v]!]!++] = v));
+  for (let i = order.length - 1; i >= 0; i--) put(order[i]!);
+  for (let v = 0; v < g.size; v++) if (!placed[v]) put(v);
   let converged = true;
   for (let c = 0; c < scc.count; c++) {
-    const list = members[c]!.filter((v) => ok[v]);
-    for (const v of members[c]!) if (!ok[v]) t[v] = Infinity;
+    const from = compStart[c]!;
+    const to = compStart[c + 1]!;
+    if (to - from === 1) {
+      const v = byComp[from]!;
+      t[v] = ok[v] ? solveSingle(v, input, t) : Infinity;
+      continue;
+    }
+    const list: number[] = [];
+    for (let i = from; i < to; i++) {
+      const v = byComp[i]!;
+      if (ok[v]) list.push(v);
+      else t[v] = Infinity;
+    }
     if (list.length === 0) continue;
-    if (list.length === 1 || list.length <= EXACT_LIMIT) {
-      if (list.length === 1 && g.ending[list[0]!]) t[list[0]!] = input.cost[list[0]!]!;
-      else solveExact(list, input, scc.comp, c, t);
-    } else converged = solveIterative(list, input, t) && converged;
+    if (list.length <= EXACT_LIMIT) solveExact(list, input, scc.comp, c, t);
+    else converged = solveIterative(list, input, t) && converged;
   }
   return { expected: t, converged };
 }

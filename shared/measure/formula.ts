@@ -232,9 +232,10 @@ export function parseFormula(expression: string): ParsedFormula {
 export function evaluateFormula(
   expression: string,
   values: Readonly<Record<string, FormulaValue | undefined>>,
-  options: { expect?: Quantity } = {},
+  options: { expect?: Quantity; parsed?: ParsedFormula } = {},
 ): FormulaResult {
-  const parsed = parseFormula(expression);
+  // A caller that already parsed the expression (the soundness check) passes the result along.
+  const parsed = options.parsed ?? parseFormula(expression);
   if (!parsed.ok) return parsed;
   const look: Lookup = (id) => {
     const v = Object.hasOwn(values, id) ? values[id] : undefined;

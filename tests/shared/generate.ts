@@ -55,6 +55,8 @@ export function soundProcedure(n: number, seed = 1): ProcedureDocument {
   for (let i = 1; i < n; i++) {
     let p = Math.max(0, Math.min(firstEnding - 1, i - 1 - Math.floor(random() * 10)));
     for (let tries = 0; out[p]!.length >= 6 && tries < 10; tries++) p = Math.max(0, Math.min(firstEnding - 1, i - 1 - Math.floor(random() * 30)));
+    // Still full: take the nearest earlier step with room (step 0 may have to take many).
+    for (let q = Math.min(firstEnding - 1, i - 1); out[p]!.length >= 6 && q >= 0; q--) if (out[q]!.length < 6) p = q;
     out[p]!.push(i);
   }
   for (let v = 0; v < firstEnding; v++) {
