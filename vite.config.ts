@@ -46,6 +46,18 @@ export default defineConfig({
   ],
   build: {
     manifest: true,
+    rollupOptions: {
+      output: {
+        // Libraries used by several lazy areas get chunks of their own, so the bundler never
+        // folds them into a chunk that the entry (and so every phone) downloads.
+        manualChunks(id: string) {
+          if (/node_modules[\\/]zod[\\/]/.test(id)) return 'lib-zod';
+          if (/node_modules[\\/](react-hook-form|@hookform)[\\/]/.test(id)) return 'lib-forms';
+          if (/node_modules[\\/]@tanstack[\\/](react-table|table-core)[\\/]/.test(id)) return 'lib-table';
+          return undefined;
+        },
+      },
+    },
     sourcemap: false,
     chunkSizeWarningLimit: 900,
   },

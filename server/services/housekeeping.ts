@@ -1,3 +1,4 @@
+import { QueryTypes } from 'sequelize';
 import type { AppDeps } from '../deps';
 
 /**
@@ -5,13 +6,13 @@ import type { AppDeps } from '../deps';
  * minutes; one UPDATE, so it is safe with several app servers.
  */
 export async function markAbandoned(deps: AppDeps): Promise<number> {
-  const [, count] = await deps.sequelize.query(
+  const [, count] = (await deps.sequelize.query(
     `UPDATE diagnoses d SET status = 'abandoned', ended_at = d.last_activity_at, updated_at = now()
        FROM shops s
       WHERE d.shop_id = s.id AND d.status = 'active'
         AND d.last_activity_at < now() - make_interval(secs => 3600 * COALESCE((s.settings->>'abandonAfterHours')::float8, :fallback))`,
-    { replacements: { fallback: deps.config.ABANDON_AFTER_HOURS } },
-  );
+    { replacements: { fallback: deps.config.ABANDON_AFTER_HOURS }, type: QueryTypes.UPDATE },
+  )) as unknown as [unknown, number];
   return Number(count ?? 0);
 }
 
