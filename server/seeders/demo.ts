@@ -79,7 +79,8 @@ export async function seedDemo(deps: AppDeps): Promise<{ shopName: string; accou
     for (const m of DEMO_METERS) {
       await Meter.findOrCreate({ where: { shopId: shop.id, name: m.name }, defaults: { ...m, shopId: shop.id }, transaction });
     }
-    await seedDemoProcedures(shop.id, transaction);
+    const lead = await User.findOne({ where: { email: 'lead@larkspur.test' }, transaction });
+    await seedDemoProcedures(shop.id, transaction, lead?.id ?? null);
   });
   return { shopName: DEMO_SHOP.name, accounts: DEMO_ACCOUNTS.map(({ email, roles }) => ({ email, roles })) };
 }
