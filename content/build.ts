@@ -33,40 +33,53 @@ type Measure = Common & {
   borderline?: { action: 'branch'; next: string; label?: string } | { action: 're-measure'; attempts?: number };
 };
 
+/** Three bands over the whole line: below min, min–max (closed), above max. */
+export function bands3(min: number, max: number, to: { low: string; ok: string; high: string }) {
+  return [
+    { id: 'below', label: 'Below limits', upper: { value: min, inclusive: false }, next: to.low },
+    { id: 'within', label: 'Within limits', lower: { value: min, inclusive: true }, upper: { value: max, inclusive: true }, next: to.ok },
+    { id: 'above', label: 'Above limits', lower: { value: max, inclusive: false }, next: to.high },
+  ];
+}
+
 /** A Reading with limits min–max and three bands: below, within, above. */
 export function reading3(id: string, m: Measure & { min: number; max: number; low: string; ok: string; high: string }): StepInput {
   const { min, max, low, ok, high, ...rest } = m;
+  return { id, kind: 'reading', ...rest, limits: { kind: 'range', min, max }, bands: bands3(min, max, { low, ok, high }) };
+}
+
+/** A Reading with one limit: at least `min` passes, or at most `max` passes; the other side fails. */
+function readingOneSided(id: string, m: Measure, limit: { min: number } | { max: number }, pass: string, fail: string): StepInput {
+  const isMin = 'min' in limit;
+  const value = isMin ? limit.min : limit.max;
+  const passBand = { id: 'within', label: isMin ? 'At or above the minimum' : 'At or below the maximum', next: pass };
+  const failBand = { id: isMin ? 'below' : 'above', label: isMin ? 'Below the minimum' : 'Above the maximum', next: fail };
   return {
-    id, kind: 'reading', ...rest, limits: { kind: 'range', min, max },
-    bands: [
-      { id: 'below', label: 'Below limits', upper: { value: min, inclusive: false }, next: low },
-      { id: 'within', label: 'Within limits', lower: { value: min, inclusive: true }, upper: { value: max, inclusive: true }, next: ok },
-      { id: 'above', label: 'Above limits', lower: { value: max, inclusive: false }, next: high },
-    ],
+    id, kind: 'reading', ...m, limits: { kind: 'range', ...limit },
+    bands: isMin
+      ? [{ ...failBand, upper: { value, inclusive: false } }, { ...passBand, lower: { value, inclusive: true } }]
+      : [{ ...passBand, upper: { value, inclusive: true } }, { ...failBand, lower: { value, inclusive: false } }],
   };
 }
 
 /** A Reading with only a minimum: below it, or at least it. */
 export function readingMin(id: string, m: Measure & { min: number; low: string; ok: string }): StepInput {
   const { min, low, ok, ...rest } = m;
-  return {
-    id, kind: 'reading', ...rest, limits: { kind: 'range', min },
-    bands: [
-      { id: 'below', label: 'Below the minimum', upper: { value: min, inclusive: false }, next: low },
-      { id: 'within', label: 'At or above the minimum', lower: { value: min, inclusive: true }, next: ok },
-    ],
-  };
+  return readingOneSided(id, rest, { min }, ok, low);
 }
 
 /** A Reading with only a maximum: at most it, or above it. */
 export function readingMax(id: string, m: Measure & { max: number; ok: string; high: string }): StepInput {
   const { max, ok, high, ...rest } = m;
+  return readingOneSided(id, rest, { max }, ok, high);
+}
+
+/** The copper-winding Formula: corrects a coil secondary reading to 20 °C (IEC 60028) and routes by limits. */
+export function secondaryAt20(next: { low: string; ok: string; high: string }): StepInput {
   return {
-    id, kind: 'reading', ...rest, limits: { kind: 'range', max },
-    bands: [
-      { id: 'within', label: 'At or below the maximum', upper: { value: max, inclusive: true }, next: ok },
-      { id: 'above', label: 'Above the maximum', lower: { value: max, inclusive: false }, next: high },
-    ],
+    id: 'secondaryAt20', kind: 'formula', title: 'Secondary at 20 °C', expression: 'copper(coilSecondary, engineTemp)', quantity: 'resistance', unit: 'kΩ',
+    instructions: 'The app corrects the copper winding to 20 °C (IEC 60028).', limits: { kind: 'range', min: 2500, max: 4500 },
+    bands: bands3(2500, 4500, next),
   };
 }
 

@@ -1,4 +1,4 @@
-import { ask, finding, FLEET, handoff, METERS, procedure, reading3, readingMax, readingMin, task } from './build';
+import { ask, finding, FLEET, handoff, METERS, procedure, reading3, secondaryAt20, readingMax, readingMin, task } from './build';
 import { CRANKING, HOT_CAUTION, PEAK_READING, SERVICE_DATA_NOTICE } from './safety';
 
 const COIL = [{ name: 'Ignition coil (illustrative)', partNumber: 'LL-IGC-01' }];
@@ -69,15 +69,7 @@ export const noSpark = procedure(
       instructions: 'Cap removed: measure from the HT lead core to the primary terminal. The next step corrects it to 20 °C.',
       low: 'coilFaulty', ok: 'secondaryAt20', high: 'coilFaulty',
     }),
-    {
-      id: 'secondaryAt20', kind: 'formula', title: 'Secondary at 20 °C', expression: 'copper(coilSecondary, engineTemp)', quantity: 'resistance', unit: 'kΩ',
-      instructions: 'The app corrects the copper winding to 20 °C (IEC 60028).', limits: { kind: 'range', min: 2500, max: 4500 },
-      bands: [
-        { id: 'below', label: 'Below limits', upper: { value: 2500, inclusive: false }, next: 'coilFaulty' },
-        { id: 'within', label: 'Within limits', lower: { value: 2500, inclusive: true }, upper: { value: 4500, inclusive: true }, next: 'exciterOhms' },
-        { id: 'above', label: 'Above limits', lower: { value: 4500, inclusive: false }, next: 'coilFaulty' },
-      ],
-    },
+    secondaryAt20({ low: 'coilFaulty', ok: 'exciterOhms', high: 'coilFaulty' }),
     reading3('exciterOhms', {
       title: 'Exciter (charge) winding resistance', quantity: 'resistance', unit: 'Ω', min: 150, max: 600, meter: METERS.ohms,
       instructions: 'Unplug the stator connector; measure across the exciter winding wires on the stator side.',

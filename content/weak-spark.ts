@@ -1,4 +1,4 @@
-import { ask, finding, FLEET, handoff, METERS, procedure, reading3, readingMax, readingMin, task } from './build';
+import { ask, finding, FLEET, handoff, METERS, procedure, reading3, secondaryAt20, readingMax, readingMin, task } from './build';
 import { CRANKING, HOT_CAUTION, PEAK_READING, SERVICE_DATA_NOTICE } from './safety';
 
 const COIL = [{ name: 'Ignition coil (illustrative)', partNumber: 'LL-IGC-01' }];
@@ -58,15 +58,7 @@ export const weakSpark = procedure(
       title: 'Coil secondary resistance', quantity: 'resistance', unit: 'kΩ', min: 2200, max: 4900, meter: METERS.kiloOhms,
       instructions: 'Cap removed: HT lead core to primary terminal. The next step corrects it to 20 °C.', low: 'coilFaulty', ok: 'secondaryAt20', high: 'coilFaulty',
     }),
-    {
-      id: 'secondaryAt20', kind: 'formula', title: 'Secondary at 20 °C', expression: 'copper(coilSecondary, engineTemp)', quantity: 'resistance', unit: 'kΩ',
-      instructions: 'The app corrects the copper winding to 20 °C (IEC 60028).', limits: { kind: 'range', min: 2500, max: 4500 },
-      bands: [
-        { id: 'below', label: 'Below limits', upper: { value: 2500, inclusive: false }, next: 'coilFaulty' },
-        { id: 'within', label: 'Within limits', lower: { value: 2500, inclusive: true }, upper: { value: 4500, inclusive: true }, next: 'exciterPeak' },
-        { id: 'above', label: 'Above limits', lower: { value: 4500, inclusive: false }, next: 'coilFaulty' },
-      ],
-    },
+    secondaryAt20({ low: 'coilFaulty', ok: 'exciterPeak', high: 'coilFaulty' }),
     {
       id: 'exciterPeak', kind: 'reading', title: 'Exciter cranking peak voltage', quantity: 'peak-voltage', unit: 'V',
       limits: { kind: 'range', min: 100 }, meter: METERS.peakVolts,

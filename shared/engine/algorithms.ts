@@ -10,12 +10,20 @@ export function reach(g: ProcedureGraph, from: readonly number[], reverse = fals
   const seen = new Uint8Array(g.size);
   const [starts, list] = reverse ? [g.inStart, g.sources] : [g.outStart, g.targets];
   const stack: number[] = [];
-  for (const s of from) if (s >= 0 && !seen[s]) (seen[s] = 1), stack.push(s);
+  for (const s of from) {
+    if (s >= 0 && !seen[s]) {
+      seen[s] = 1;
+      stack.push(s);
+    }
+  }
   while (stack.length) {
     const v = stack.pop()!;
     for (let e = starts[v]!; e < starts[v + 1]!; e++) {
       const w = list[e]!;
-      if (!seen[w]) (seen[w] = 1), stack.push(w);
+      if (!seen[w]) {
+        seen[w] = 1;
+        stack.push(w);
+      }
     }
   }
   return seen;
@@ -55,7 +63,8 @@ export function stronglyConnected(g: ProcedureGraph): Components {
     call.push(root);
     indexOf[root] = low[root] = counter++;
     edgePos[root] = g.outStart[root]!;
-    sccStack.push(root), (onStack[root] = 1);
+    sccStack.push(root);
+    onStack[root] = 1;
     while (call.length) {
       const v = call[call.length - 1]!;
       if (edgePos[v]! < g.outStart[v + 1]!) {
@@ -63,7 +72,8 @@ export function stronglyConnected(g: ProcedureGraph): Components {
         if (indexOf[w] === -1) {
           indexOf[w] = low[w] = counter++;
           edgePos[w] = g.outStart[w]!;
-          sccStack.push(w), (onStack[w] = 1);
+          sccStack.push(w);
+          onStack[w] = 1;
           call.push(w);
         } else if (onStack[w] && indexOf[w]! < low[v]!) low[v] = indexOf[w]!;
         continue;
@@ -113,7 +123,11 @@ export function depthFirst(g: ProcedureGraph, start: number): DepthFirst {
       const v = stack[stack.length - 1]!;
       if (edgePos[v]! < g.outStart[v + 1]!) {
         const w = g.targets[edgePos[v]!++]!;
-        if (state[w] === 0) (state[w] = 1), (edgePos[w] = g.outStart[w]!), stack.push(w);
+        if (state[w] === 0) {
+          state[w] = 1;
+          edgePos[w] = g.outStart[w]!;
+          stack.push(w);
+        }
         continue;
       }
       state[v] = 2;
@@ -168,7 +182,10 @@ export function dominators(g: ProcedureGraph, dfs: DepthFirst): Dominators {
         if (idom[p] === -1) continue;
         next = next === -1 ? p : intersect(p, next);
       }
-      if (next !== idom[b]) (idom[b] = next), (changed = true);
+      if (next !== idom[b]) {
+        idom[b] = next;
+        changed = true;
+      }
     }
   }
   return { idom, dominates: treeQuery(idom, order) };

@@ -88,7 +88,10 @@ function cheapestToEnding(g: ProcedureGraph, cost: Float64Array): number | null 
     let i = size++;
     keys[i] = d;
     nodes[i] = v;
-    while (i > 0 && keys[(i - 1) >> 1]! > keys[i]!) swap(i, (i - 1) >> 1), (i = (i - 1) >> 1);
+    while (i > 0 && keys[(i - 1) >> 1]! > keys[i]!) {
+      swap(i, (i - 1) >> 1);
+      i = (i - 1) >> 1;
+    }
   };
   const pop = () => {
     swap(0, --size);

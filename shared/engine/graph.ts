@@ -83,7 +83,10 @@ export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
     forEachTarget(step, (to, local) => {
       const w = index.get(to);
       if (w === undefined) danglingFrom.push(v);
-      else (targetBuffer[m] = w), (localBuffer[m++] = local);
+      else {
+        targetBuffer[m] = w;
+        localBuffer[m++] = local;
+      }
     });
   }
   outStart[n] = m;
@@ -104,8 +107,10 @@ export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
     let hi = n - 1;
     while (lo <= hi) {
       const mid = (lo + hi) >> 1;
-      if (outStart[mid]! <= e) (v = mid), (lo = mid + 1);
-      else hi = mid - 1;
+      if (outStart[mid]! <= e) {
+        v = mid;
+        lo = mid + 1;
+      } else hi = mid - 1;
     }
     while (v < n && outStart[v + 1]! <= e) v++;
     return branchesOf(steps[v]!)[localBuffer[e]!]!;

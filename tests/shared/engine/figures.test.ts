@@ -104,7 +104,10 @@ describe('pathFigures', () => {
         }
         for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) {
           const w = g.targets[e]!;
-          if (!dist.has(w)) dist.set(w, dist.get(v)! + 1), queue.push(w);
+          if (!dist.has(w)) {
+            dist.set(w, dist.get(v)! + 1);
+            queue.push(w);
+          }
         }
       }
       expect(pathFigures(d).shortest?.steps ?? null).toBe(best);
