@@ -33,11 +33,8 @@ export interface PathFigures {
   readonly longest: PathLength | null;
   /** Expected steps and minutes from the start; null when an ending may never be reached. */
   readonly expected: PathLength | null;
-  /**
-   * Expected figures from any step, for the Bench progress indicator (Infinity when an ending
-   * may never be reached; null for an unknown id). A function, so 20 000 steps cost no objects.
-   */
-  readonly perStep: (stepId: string) => StepFigures | null;
+  /** Expected figures from every step, for the Bench progress indicator (Infinity when an ending may never be reached). */
+  readonly perStep: Readonly<Record<string, StepFigures>>;
   readonly hasLoops: boolean;
   /** False if the iterative solver stopped before its tolerance (figures are then approximate). */
   readonly converged: boolean;
@@ -140,7 +137,7 @@ function longestToEnding(g: ProcedureGraph, dfs: DepthFirst, cost: Float64Array)
  * Shortest, longest and expected path to an ending, and expected steps/minutes left from every
  * step, by an absorbing Markov chain over the branches (uniform, or from recorded counts).
  * Example: `pathFigures(doc).expected` → `{ steps: 7.5, minutes: 14 }`;
- * `pathFigures(doc).perStep('coilPrimary')?.expectedSteps` → 4.
+ * `pathFigures(doc).perStep.coilPrimary.expectedSteps` → 4.
  */
 export function pathFigures(doc: ProcedureDocument, options: PathFiguresOptions = {}): PathFigures {
   const g = buildGraph(doc);
@@ -152,10 +149,8 @@ export function pathFigures(doc: ProcedureDocument, options: PathFiguresOptions 
   const dfs = depthFirst(g, g.start);
   const bySteps = expectedToEnding({ graph: g, probability, cost: ones }, scc, dfs.order);
   const byMinutes = expectedToEnding({ graph: g, probability, cost: minutes }, scc, dfs.order);
-  const perStep = (stepId: string): StepFigures | null => {
-    const v = g.index.get(stepId);
-    return v === undefined ? null : { expectedSteps: bySteps.expected[v]!, expectedMinutes: byMinutes.expected[v]! };
-  };
+  const perStep: Record<string, StepFigures> = {};
+  for (let v = 0; v < g.size; v++) perStep[g.steps[v]!.id] = { expectedSteps: bySteps.expected[v]!, expectedMinutes: byMinutes.expected[v]! };
   const pair = (a: number | null, b: number | null): PathLength | null => (a === null || b === null ? null : { steps: a, minutes: b });
   const startOk = g.start >= 0 && Number.isFinite(bySteps.expected[g.start]!);
   return {

@@ -47,14 +47,14 @@ describe('pathFigures', () => {
   it('a retry loop taken half the time gives 3 expected steps from the question (geometric series)', () => {
     // t = 1 + ½·t + ½·1 ⇒ t = 3 steps from the question, the Finding included.
     const f = pathFigures(doc([observation('look', { again: 'look', done: 'f' }), finding('f')]));
-    expect(f.perStep('look')!.expectedSteps).toBeCloseTo(3, 12);
+    expect(f.perStep.look!.expectedSteps).toBeCloseTo(3, 12);
     expect(f.hasLoops).toBe(true);
   });
 
   it('solves a large loop iteratively to the same answer (a ring of 40 questions, each ending half the time)', () => {
     const ring = Array.from({ length: 40 }, (_, i) => observation(`q${i}`, { on: `q${(i + 1) % 40}`, stop: 'f' }));
     const f = pathFigures(doc([...ring, finding('f')]));
-    for (let i = 0; i < 40; i++) expect(f.perStep(`q${i}`)!.expectedSteps).toBeCloseTo(3, 8);
+    for (let i = 0; i < 40; i++) expect(f.perStep[`q${i}`]!.expectedSteps).toBeCloseTo(3, 8);
     expect(f.converged).toBe(true);
   });
 
@@ -68,7 +68,7 @@ describe('pathFigures', () => {
   it('reports no expected figure when an ending may never be reached', () => {
     const f = pathFigures(doc([observation('a', { ok: 'f', trap: 'loop' }), task('loop', 'loop'), finding('f')]));
     expect(f.expected).toBeNull();
-    expect(f.perStep('loop')!.expectedSteps).toBe(Infinity);
+    expect(f.perStep.loop!.expectedSteps).toBe(Infinity);
     expect(f.shortest!.steps).toBe(2);
   });
 
@@ -83,7 +83,7 @@ describe('pathFigures', () => {
         const d = soundProcedure(n, seed);
         const f = pathFigures(d);
         const oracle = valueIteration(d, () => 1);
-        for (const [id, t] of oracle) expect(f.perStep(id)!.expectedSteps).toBeCloseTo(t, 6);
+        for (const [id, t] of oracle) expect(f.perStep[id]!.expectedSteps).toBeCloseTo(t, 6);
       }),
       { numRuns: 40 },
     );
