@@ -10,23 +10,27 @@ import type { ProcedureDocument } from '@shared/schema';
 import type { AdvisorAnswer, AdvisorChain, AdvisorCheck, AdvisorDraftBody } from '@shared/stats/debrief-schema';
 import { audit } from './audit';
 import { handleOf } from './debrief-analytics.service';
-import { SCOPED, num, numOrNull, parseDocument, scopeBinds, type Scope, type Sql } from './debrief-scope';
+import { SCOPED, STEP_SCOPE, num, numOrNull, parseDocument, scopeBinds, type Scope, type Sql } from './debrief-scope';
 
 // The check-order advisor over recorded diagnoses: each check's share of revealed faults and its
 // median time come from SQL aggregates; the ordering rule lives in shared/engine/advisor.ts.
 
-/** Per chain step: how many ended diagnoses reached it, which branch they took, and the median time. */
+/**
+ * Per chain step: how many ended diagnoses took each branch, and (grouping set by step alone) the
+ * median time of the check, in one scan of the step index.
+ */
 async function chainFigures(sql: Sql, scope: Scope, stepIds: string[]) {
   const rows = await sql(`WITH ${SCOPED}
-    SELECT s.step_id, s.band_id, s.answer_id, count(*) AS n
-    FROM d JOIN diagnosis_steps s ON s.diagnosis_id = d.id
-    WHERE d.status IN ('finished', 'handed_off') AND NOT s.superseded AND s.step_id = ANY($5::text[])
-    GROUP BY 1, 2, 3`, [...scopeBinds(scope), stepIds]);
-  const timeRows = await sql(`WITH ${SCOPED}
-    SELECT s.step_id, percentile_cont(0.5) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM s.answered_at - s.started_at)) AS median
-    FROM d JOIN diagnosis_steps s ON s.diagnosis_id = d.id
-    WHERE d.status IN ('finished', 'handed_off') AND NOT s.superseded AND s.step_id = ANY($5::text[]) GROUP BY 1`, [...scopeBinds(scope), stepIds]);
-  return { rows, medians: new Map(timeRows.map((r) => [String(r.step_id), numOrNull(r.median)])) };
+    SELECT ds.step_id, ds.band_id, ds.answer_id, GROUPING(ds.band_id, ds.answer_id) AS whole_step, count(*) AS n,
+      percentile_cont(0.5) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM ds.answered_at - ds.started_at)) AS median
+    FROM diagnosis_steps ds
+    WHERE ${STEP_SCOPE} AND NOT ds.superseded AND ds.step_id = ANY($5::text[])
+      AND ds.diagnosis_id IN (SELECT id FROM d WHERE status IN ('finished', 'handed_off'))
+    GROUP BY GROUPING SETS ((ds.step_id, ds.band_id, ds.answer_id), (ds.step_id))`, [...scopeBinds(scope), stepIds]);
+  return {
+    rows: rows.filter((r) => num(r.whole_step) === 0),
+    medians: new Map(rows.filter((r) => num(r.whole_step) !== 0).map((r) => [String(r.step_id), numOrNull(r.median)])),
+  };
 }
 
 function estimate(doc: ProcedureDocument, chain: CheckChain, figures: Awaited<ReturnType<typeof chainFigures>>): { entered: number; checks: AdvisorCheck[] } {

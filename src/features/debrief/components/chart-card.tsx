@@ -35,7 +35,7 @@ export function ChartCard({ title, question, chart, table, csvName, footer }: {
 
 export function FigureTableView({ table, caption }: { table: FigureTable; caption: string }) {
   return (
-    <div className="max-h-[28rem] overflow-auto rounded-lg border border-line">
+    <div className="max-h-[28rem] overflow-auto rounded-lg border border-line" tabIndex={0} role="region" aria-label={caption}>
       <table className="w-full text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="sticky top-0 bg-paper">

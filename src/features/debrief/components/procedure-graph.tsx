@@ -44,8 +44,8 @@ export default function ProcedureGraph({ doc, graph, label, onSelect }: {
     labelStyle: { fontSize: 12, fill: '#1d232c' }, labelBgStyle: { fill: '#f5f2ea' },
   }));
   return (
-    <div className="h-[34rem] rounded-[var(--radius-card)] border border-line bg-paper" role="figure" aria-label={label}>
-      <ReactFlow nodes={nodes} edges={edges} nodeTypes={nodeTypes} fitView minZoom={0.2} nodesDraggable={false} nodesConnectable={false}
+    <div className="h-[46rem] rounded-[var(--radius-card)] border border-line bg-paper" role="figure" aria-label={label}>
+      <ReactFlow nodes={nodes} edges={edges} nodeTypes={nodeTypes} fitView fitViewOptions={{ padding: 0.04 }} minZoom={0.2} nodesDraggable={false} nodesConnectable={false}
         elementsSelectable={Boolean(onSelect)} onNodeClick={onSelect ? (_e, n) => onSelect(n.id) : undefined}>
         <Background gap={24} color="#e4ded0" />
         <Controls showInteractive={false} />
