@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { QueryTypes, type Transaction } from 'sequelize';
+import { QueryTypes, UniqueConstraintError } from 'sequelize';
 import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
@@ -28,8 +28,9 @@ export function payloadHash(input: unknown): string {
   return createHash('sha256').update(canonical).digest('hex');
 }
 
-// One statement reads everything the decision needs and locks the diagnosis, so steps of one
-// diagnosis are appended one at a time (seq stays dense) while other diagnoses run in parallel.
+// One statement reads everything the decision needs. It takes no lock: the write below is one
+// atomic statement, and the unique (diagnosis_id, seq) index turns a concurrent append into a
+// conflict that is retried with a fresh read, so seq stays dense and the path consistent.
 const HEAD_SQL = `
   SELECT d.status, d.technician_id, d.procedure_version_id, m.spec->'entries' AS meter,
     (SELECT coalesce(max(seq), 0) FROM diagnosis_steps WHERE diagnosis_id = d.id) AS max_seq,
@@ -38,25 +39,32 @@ const HEAD_SQL = `
     (SELECT row_to_json(x) FROM (SELECT diagnosis_id, payload_hash, seq, step_id, value, verdict, band_id, answer_id, next_step_id
        FROM diagnosis_steps WHERE id = :rowId) x) AS existing
   FROM diagnoses d LEFT JOIN meters m ON m.id = d.meter_id
-  WHERE d.id = :diagnosisId AND d.shop_id = :shopId
-  FOR UPDATE OF d`;
+  WHERE d.id = :diagnosisId AND d.shop_id = :shopId`;
 
-// Supersedes the abandoned tail of the path, stores the step once and touches the diagnosis.
+// Supersedes the abandoned tail of the path, stores the step once and touches the diagnosis, in
+// one statement (so one transaction); nothing is written once the diagnosis has ended.
 const WRITE_SQL = `
-  WITH sup AS (
+  WITH live AS (
+    SELECT 1 FROM diagnoses WHERE id = :diagnosisId AND status = 'active'
+  ), sup AS (
     UPDATE diagnosis_steps SET superseded = true
      WHERE diagnosis_id = :diagnosisId AND :fromSeq::int IS NOT NULL AND seq >= :fromSeq::int AND NOT superseded
+       AND EXISTS (SELECT 1 FROM live)
   ), ins AS (
     INSERT INTO diagnosis_steps (id, shop_id, diagnosis_id, seq, step_id, kind, shown, entered, value, unit, verdict,
                                  band_id, answer_id, note, started_at, answered_at, payload_hash, next_step_id)
-    VALUES (:id, :shopId, :diagnosisId, :seq, :stepId, :kind, :shown::jsonb, :entered, :value, :unit, :verdict,
-            :bandId, :answerId, :note, :startedAt, :answeredAt, :hash, :next)
+    SELECT :id, :shopId, :diagnosisId, :seq, :stepId, :kind, :shown::jsonb, :entered, :value, :unit, :verdict,
+           :bandId, :answerId, :note, :startedAt::timestamptz, :answeredAt::timestamptz, :hash, :next
+     WHERE EXISTS (SELECT 1 FROM live)
     ON CONFLICT (id) DO NOTHING
+    RETURNING id
+  ), touched AS (
+    UPDATE diagnoses SET last_activity_at = now(), updated_at = now(),
+           status = coalesce(:endStatus, status), ending_step_id = coalesce(:endingStepId, ending_step_id),
+           outcome = coalesce(:outcome::jsonb, outcome), ended_at = CASE WHEN :endStatus::text IS NULL THEN ended_at ELSE :answeredAt::timestamptz END
+     WHERE id = :diagnosisId AND EXISTS (SELECT 1 FROM ins)
   )
-  UPDATE diagnoses SET last_activity_at = now(), updated_at = now(),
-         status = coalesce(:endStatus, status), ending_step_id = coalesce(:endingStepId, ending_step_id),
-         outcome = coalesce(:outcome::jsonb, outcome), ended_at = CASE WHEN :endStatus::text IS NULL THEN ended_at ELSE :answeredAt::timestamptz END
-   WHERE id = :diagnosisId`;
+  SELECT count(*)::int AS inserted FROM ins`;
 
 function fromExisting(e: NonNullable<Head['existing']>, id: string, status: string): StepResult {
   return { id, seq: e.seq, stepId: e.step_id, value: e.value, verdict: e.verdict, bandId: e.band_id, answerId: e.answer_id, next: e.next_step_id, status, duplicate: true };
@@ -84,7 +92,7 @@ function outcomeFor(kind: string, input: StepInput): { endStatus: string | null;
   return { endStatus: null, outcome: null };
 }
 
-async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput, head: Head, hash: string, transaction: Transaction) {
+async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput, head: Head, hash: string) {
   const version = await loadPinnedVersion(deps.sequelize, ctx.shopId, head.procedure_version_id);
   const step = version.steps.get(input.stepId);
   if (!step) {
@@ -97,8 +105,8 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
   const decided = decideStep(step, input, decideContext(keep, version.steps, head.meter ?? []));
   const { endStatus, outcome } = outcomeFor(step.kind, input);
   const seq = Number(head.max_seq) + 1;
-  await deps.sequelize.query(WRITE_SQL, {
-    transaction,
+  const [written] = await deps.sequelize.query<{ inserted: number }>(WRITE_SQL, {
+    type: QueryTypes.SELECT,
     replacements: {
       id: input.id, shopId: ctx.shopId, diagnosisId, seq, stepId: step.id, kind: step.kind, shown: JSON.stringify(decided.shown),
       entered: decided.entered, value: decided.value, unit: decided.unit, verdict: decided.verdict, bandId: decided.bandId,
@@ -106,6 +114,8 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
       fromSeq: keep.length < head.path.length ? head.path[keep.length]!.seq : null, endStatus, endingStepId: endStatus ? step.id : null, outcome,
     },
   });
+  // Nothing stored: the diagnosis ended, or the same id arrived at the same moment. Read again.
+  if (!written || written.inserted === 0) return null;
   const result: StepResult = {
     id: input.id, seq, stepId: step.id, value: decided.value, verdict: decided.verdict, bandId: decided.bandId,
     answerId: decided.answerId, next: decided.next, status: endStatus ?? 'active', duplicate: false,
@@ -113,15 +123,17 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
   return { result, handoff: step.kind === 'handoff' };
 }
 
+const isSeqConflict = (e: unknown) => e instanceof UniqueConstraintError && JSON.stringify(e.fields ?? {}).includes('seq');
+
 /**
  * Records one answered step: re-checked against the pinned version, stored exactly once (the
- * phone's id is the primary key), earlier answers after `after` marked superseded. Two statements
- * inside one transaction; the benchmark and a query-count test hold it to that.
+ * phone's id is the primary key), earlier answers after `after` marked superseded. One read and
+ * one atomic write; a query-count test and the benchmark hold it to that.
  */
 export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput): Promise<StepResult> {
   const hash = payloadHash(input);
-  const out = await deps.sequelize.transaction(async (transaction) => {
-    const [head] = await deps.sequelize.query<Head>(HEAD_SQL, { transaction, type: QueryTypes.SELECT, replacements: { diagnosisId, shopId: ctx.shopId, rowId: input.id } });
+  for (let attempt = 0; attempt < 4; attempt++) {
+    const [head] = await deps.sequelize.query<Head>(HEAD_SQL, { type: QueryTypes.SELECT, replacements: { diagnosisId, shopId: ctx.shopId, rowId: input.id } });
     if (!head) throw notFound('That diagnosis');
     // Another technician's diagnosis is not theirs to read either, so it does not exist for them.
     if (head.technician_id !== ctx.userId && !ctx.roles.includes('lead')) throw notFound('That diagnosis');
@@ -129,11 +141,19 @@ export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: s
       if (head.existing.diagnosis_id !== diagnosisId || head.existing.payload_hash !== hash) {
         throw new AppError(422, 'id_reused', 'A different step was already stored with this id. The app makes a new id per answer; reload the diagnosis and answer again.');
       }
-      return { result: fromExisting(head.existing, input.id, head.status), handoff: false };
+      return fromExisting(head.existing, input.id, head.status);
     }
     checkActive(head);
-    return decideAndWrite(deps, ctx, diagnosisId, input, head, hash, transaction);
-  });
-  if (out.handoff) await notifyHandoff(deps, ctx, diagnosisId);
-  return out.result;
+    let out: Awaited<ReturnType<typeof decideAndWrite>>;
+    try {
+      out = await decideAndWrite(deps, ctx, diagnosisId, input, head, hash);
+    } catch (e) {
+      if (isSeqConflict(e)) continue; // another answer took this place a moment ago: decide again
+      throw e;
+    }
+    if (!out) continue;
+    if (out.handoff) await notifyHandoff(deps, ctx, diagnosisId);
+    return out.result;
+  }
+  throw new AppError(409, 'busy', 'Several answers reached this diagnosis at the same moment. Send the step again.');
 }

@@ -13,7 +13,10 @@ export const benchDoc = doc([
   { ...task('killLead', 'sparkTest'), safety: [{ signal: 'WARNING', text: 'Keep clear of the plug lead while cranking.' }] },
   observation('sparkTest', { none: 'exciter', strong: 'plugFinding', weak: 'senior' }),
   ohmsReading('exciter', 100, 200, { low: 'coilFinding', ok: 'pulser', high: 'coilFinding' }),
-  { ...ohmsReading('pulser', 50, 170, { low: 'coilFinding', ok: 'combined', high: 'coilFinding' }), leadNull: true },
+  {
+    ...ohmsReading('pulser', 50, 170, { low: 'coilFinding', ok: 'combined', high: 'coilFinding' }), leadNull: true,
+    safety: [{ signal: 'DANGER', text: 'Test text: the charge circuit is live while cranking.' }],
+  },
   { id: 'combined', kind: 'formula', title: 'Combined', expression: 'parallel(exciter, pulser)', quantity: 'resistance', unit: 'Ω', next: 'cdiFinding' },
   { ...finding('cdiFinding', 'Replace the CDI unit'), parts: [{ name: 'CDI unit', quantity: 1 }] },
   finding('coilFinding', 'Replace the stator'),

@@ -66,7 +66,7 @@ describe('stepping through the pinned version', () => {
     const c = await step(id, 'exciter', b.id, { entered: '0,15k' });
     expect(c).toMatchObject({ value: 150, verdict: 'within', next: 'pulser' });
     // 120 Ω with 0.4 Ω test leads nulled is 119.6 Ω.
-    const d = await step(id, 'pulser', c.id, { entered: '120', leadEntered: '0.4' });
+    const d = await step(id, 'pulser', c.id, { entered: '120', leadEntered: '0.4', acknowledged: true });
     expect(d.value).toBeCloseTo(119.6, 6);
     const e = await step(id, 'combined', d.id);
     // parallel(150, 119.6) = 150·119.6 / 269.6
@@ -131,7 +131,7 @@ describe('stepping through the pinned version', () => {
     expect(rows[2]!.verdict).toBe('above');
   });
 
-  it('records one step in one transaction of at most four statements', async () => {
+  it('records one step with one read and one atomic write (four statements with the sign-in lookups)', async () => {
     const id = await start();
     const a = await step(id, 'killLead', null);
     const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
@@ -144,11 +144,40 @@ describe('stepping through the pinned version', () => {
     } finally {
       seq.options.logging = before;
     }
-    // Sequelize tags statements inside a transaction with its id: START, read-and-lock, write, COMMIT.
-    const inTransaction = sql.filter((s) => /^Executing \([0-9a-f-]{36}\)/.test(s));
-    expect(inTransaction.length, sql.join('\n')).toBeLessThanOrEqual(4);
-    // Outside it only the session user and the shop membership are read (passport, requireShop).
-    expect(sql.length - inTransaction.length, sql.join('\n')).toBeLessThanOrEqual(2);
+    // passport's user lookup, requireShop's membership, then the step's read and its write
+    expect(sql.length, sql.join('\n')).toBeLessThanOrEqual(4);
+    expect(sql.filter((s) => /INSERT INTO diagnosis_steps/.test(s))).toHaveLength(1);
+  });
+
+  it('the same step sent five times at once is stored once', async () => {
+    const id = await start();
+    const body = stepBody('killLead', null);
+    const answers = await Promise.all(Array.from({ length: 5 }, () => tech.post(`/api/diagnoses/${id}/steps`, body)));
+    expect(answers.map((r) => r.status).sort()).toEqual([200, 200, 200, 200, 201]);
+    expect(await DiagnosisStep.count({ where: { diagnosisId: id } })).toBe(1);
+  });
+
+  it('two different answers racing for the same place: both are stored in order, the later one supersedes', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const [x, y] = await Promise.all([
+      tech.post(`/api/diagnoses/${id}/steps`, stepBody('sparkTest', a.id, { answerId: 'none' })),
+      tech.post(`/api/diagnoses/${id}/steps`, stepBody('sparkTest', a.id, { answerId: 'strong' })),
+    ]);
+    expect([x.status, y.status]).toEqual([201, 201]);
+    const rows = (await tech.get(`/api/diagnoses/${id}`).expect(200)).body.steps as { seq: number; superseded: boolean }[];
+    expect(rows.map((r) => [r.seq, r.superseded])).toEqual([[1, false], [2, true], [3, false]]);
+  });
+
+  it('a DANGER step is refused until its note is acknowledged', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    const c = await step(id, 'exciter', b.id, { entered: '150' });
+    const refused = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('pulser', c.id, { entered: '120' }));
+    expect(refused.status).toBe(422);
+    expect(expectEnvelope(refused.body).code).toBe('not_acknowledged');
+    await step(id, 'pulser', c.id, { entered: '120', acknowledged: true });
   });
 });
 

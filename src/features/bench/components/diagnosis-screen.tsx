@@ -65,7 +65,7 @@ export function DiagnosisScreen() {
           <span className="text-lg font-semibold" data-testid="progress">
             {done} done{left !== undefined && Number.isFinite(left) ? ` · about ${Math.max(0, Math.round(left - 1))} to go` : ''}
           </span>
-          {(currentView || state.ending) && <span className="ml-auto text-lg font-semibold">⏱ <StepTimer since={shownAt.at} /></span>}
+          {(currentView || state.ending) && <span className="ml-auto text-lg font-semibold">Time on step <StepTimer since={shownAt.at} /></span>}
         </div>
         <div className="h-3 overflow-hidden rounded-full bg-line" aria-hidden>
           <div className="h-full bg-signal" style={{ width: `${Math.round((100 * done) / Math.max(1, done + (left ?? 0)))}%` }} />
@@ -86,21 +86,22 @@ export function DiagnosisScreen() {
         <StepCard key={stepKey} view={currentView} step={currentStep} values={state.values} remeasure={!editPath && state.remeasure}
           remeasured={editPath ? 0 : remeasuredAt(state.path, currentView.id)}
           extras={(note, setNote) => (
-            <div className="space-y-3">
-              <label className="block text-lg font-bold">Note
-                <textarea className="mt-1 w-full rounded-lg border-2 border-ink/40 bg-panel p-2 text-lg" rows={2} value={note} onChange={(e) => setNote(e.target.value)} />
-              </label>
-              <PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, currentView.id)} />
-            </div>
+            <details className="rounded-lg border-2 border-ink/30 bg-panel" open={note !== '' || photosHere.length > 0}>
+              <summary className="flex min-h-12 cursor-pointer items-center px-3 text-lg font-bold">Add a note or photo{photosHere.length ? ` (${photosHere.length} photo${photosHere.length > 1 ? 's' : ''})` : ''}</summary>
+              <div className="space-y-3 p-3 pt-0">
+                <label className="block text-lg font-bold">Note
+                  <textarea className="mt-1 w-full rounded-lg border-2 border-ink/40 bg-panel p-2 text-lg" rows={2} value={note} onChange={(e) => setNote(e.target.value)} />
+                </label>
+                <PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, currentView.id)} />
+              </div>
+            </details>
           )}
           onAnswer={async (a) => { await d.answer({ ...a, startedAt }, editing ?? undefined); setEditing(null); }} />
       )}
 
       {!editPath && state.status === 'ended' && state.ending && d.diagnosis.status === 'active' && (
-        <>
-          <EndingForm view={state.ending} onFinish={(outcome, note) => d.finish(state.ending!.id, outcome, note, startedAt)} />
-          <PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, state.ending!.id)} />
-        </>
+        <EndingForm view={state.ending} onFinish={(outcome, note) => d.finish(state.ending!.id, outcome, note, startedAt)}
+          photos={<PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, state.ending!.id)} />} />
       )}
       {d.diagnosis.status !== 'active' && (
         <Alert tone="go" title={d.diagnosis.status === 'finished' ? 'Diagnosis finished' : 'Handed off'}>

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import type { StepView } from '@shared/engine/step-view';
 import { SafetyBlock } from './step-card';
 
@@ -6,7 +6,7 @@ const input = 'w-full rounded-lg border-2 border-ink/70 bg-panel px-3 min-h-12 t
 const check = 'flex min-h-14 items-center gap-3 rounded-lg border-2 border-ink/30 bg-panel px-3 text-lg font-semibold';
 
 /** A Finding: what was done, the final check and the labour; a Hand-off: the reason. */
-export function EndingForm({ view, onFinish }: { view: StepView; onFinish(outcome: Record<string, unknown>, note: string): Promise<void> }) {
+export function EndingForm({ view, photos, onFinish }: { view: StepView; photos: ReactNode; onFinish(outcome: Record<string, unknown>, note: string): Promise<void> }) {
   const [parts, setParts] = useState(() => (view.parts ?? []).map((p) => ({ name: p.name, lot: '', fitted: true })));
   const [final, setFinal] = useState({ spark: false, runs: false, stops: false });
   const [labour, setLabour] = useState('');
@@ -63,6 +63,7 @@ export function EndingForm({ view, onFinish }: { view: StepView; onFinish(outcom
       <label className="block text-lg font-bold">Note (optional)
         <textarea className={`${input} min-h-20 py-2`} value={note} onChange={(e) => setNote(e.target.value)} />
       </label>
+      {photos}
       <button type="button" disabled={!ready || busy} onClick={() => void submit()}
         className="min-h-16 w-full rounded-xl bg-go px-5 text-xl font-bold text-white disabled:opacity-40">
         {finding ? 'Finish the diagnosis' : 'Hand off and notify the leads'}

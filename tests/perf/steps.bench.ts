@@ -1,0 +1,172 @@
+// npm run perf:steps — recording Bench steps through the real endpoint (session, CSRF, shop and
+// role checks, the re-check against the pinned version, one transaction) against a bare endpoint
+// on the same server that does one plain INSERT with pg. Both under autocannon, 50 connections,
+// in one run. Targets: steps ≥ 50 % of the bare throughput, p99 < 50 ms, zero errors.
+import { randomUUID } from 'node:crypto';
+import { fork } from 'node:child_process';
+import { fileURLToPath } from 'node:url';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import type { AddressInfo } from 'node:net';
+import express from 'express';
+import pg from 'pg';
+import autocannon from 'autocannon';
+import { loadConfig } from '../../server/config';
+import { startRuntime } from '../../server/runtime';
+import { createApp } from '../../server/app';
+import { seedDemo } from '../../server/seeders/demo';
+import { Meter, Procedure, ProcedureVersion, Shop, User, Vehicle } from '../../server/models';
+import { doc } from '../shared/fixtures';
+
+const CONNECTIONS = 50;
+const DURATION = Number(process.env.PERF_SECONDS ?? 10);
+const STEPS_PER_DIAGNOSIS = 30; // a long real diagnosis; then the connection moves to a fresh one
+const PASSWORD = 'perf-demo-password';
+
+// A Reading whose every band comes back to itself: each request is a valid next step that parses
+// "0,15k" and decides it with the meter's uncertainty, like a real reading.
+const loopDoc = doc([{
+  id: 'exciter', kind: 'reading', title: 'Exciter winding', quantity: 'resistance', unit: 'Ω', limits: { kind: 'range', min: 100, max: 200 },
+  bands: [
+    { id: 'low', label: 'Below', upper: { value: 100, inclusive: false }, next: 'exciter' },
+    { id: 'ok', label: 'Within', lower: { value: 100, inclusive: true }, upper: { value: 200, inclusive: true }, next: 'exciter' },
+    { id: 'high', label: 'Above', lower: { value: 200, inclusive: false }, next: 'exciter' },
+  ],
+}]);
+
+async function setUp() {
+  const config = loadConfig({
+    ...process.env, NODE_ENV: 'test', PORT: '0', SMTP_PORT: '0', DEMO_PASSWORD: PASSWORD, SERVE_CLIENT: '0', LOCAL_FAKES: '1',
+    DATA_DIR: mkdtempSync(path.join(tmpdir(), 'sw-perf-')), LOGIN_RATE_LIMIT: '100000',
+  });
+  const runtime = await startRuntime(config);
+  await seedDemo(runtime.deps);
+  const shop = (await Shop.findOne({ where: { slug: 'larkspur-lane' } }))!;
+  const tech = (await User.findOne({ where: { email: 'tech@larkspur.test' } }))!;
+  const [proc] = await Procedure.findOrCreate({ where: { shopId: shop.id, slug: 'perf-loop' }, defaults: { shopId: shop.id, slug: 'perf-loop', title: 'Perf loop', symptom: 'No spark', ignitionSystem: 'magneto-cdi', archivedAt: null, createdBy: null } });
+  const version = await ProcedureVersion.create({ shopId: shop.id, procedureId: proc.id, number: Date.now() % 1e6, status: 'published', document: loopDoc as never, basedOnId: null, createdBy: null, updatedBy: null, publishedBy: null, publishedAt: new Date(), retiredAt: null });
+  const vehicle = (await Vehicle.findOne({ where: { shopId: shop.id } }))!;
+  const meter = (await Meter.findOne({ where: { shopId: shop.id } }))!;
+  const diagnoses = Array.from({ length: 4000 }, () => randomUUID());
+  await runtime.deps.sequelize.query(
+    `INSERT INTO diagnoses (id, shop_id, procedure_version_id, vehicle_id, technician_id, meter_id, complaint)
+     SELECT unnest(ARRAY[:ids]::uuid[]), :shop, :version, :vehicle, :tech, :meter, 'benchmark'`,
+    { replacements: { ids: diagnoses, shop: shop.id, version: version.id, vehicle: vehicle.id, tech: tech.id, meter: meter.id } });
+  await runtime.deps.sequelize.query('CREATE TABLE IF NOT EXISTS perf_bare_steps (id uuid PRIMARY KEY, diagnosis_id uuid NOT NULL, body jsonb NOT NULL, created_at timestamptz NOT NULL DEFAULT now())');
+
+  const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 10 });
+  const outer = express();
+  // The bare endpoint lives only here: JSON in, one INSERT, JSON out.
+  outer.post('/bare', express.json(), async (req, res) => {
+    const body = req.body as { id: string; diagnosisId: string };
+    await pool.query('INSERT INTO perf_bare_steps (id, diagnosis_id, body) VALUES ($1, $2, $3)', [body.id, body.diagnosisId, body]);
+    res.status(201).json({ id: body.id });
+  });
+  outer.use(createApp(runtime.deps));
+  const server = outer.listen(0, '127.0.0.1');
+  await new Promise((r) => server.once('listening', r));
+  const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  return { runtime, pool, server, base, diagnoses };
+}
+
+/** One signed-in session per connection, so that session writes do not queue on one row. */
+async function signIn(base: string): Promise<{ cookie: string; csrf: string }> {
+  const first = await fetch(`${base}/api/auth/csrf`);
+  const cookie0 = first.headers.get('set-cookie')!.split(';')[0]!;
+  const { token } = (await first.json()) as { token: string };
+  const login = await fetch(`${base}/api/auth/login`, {
+    method: 'POST', headers: { 'content-type': 'application/json', cookie: cookie0, 'x-csrf-token': token },
+    body: JSON.stringify({ email: 'tech@larkspur.test', password: PASSWORD }),
+  });
+  if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
+  return { cookie: login.headers.get('set-cookie')!.split(';')[0]!, csrf: ((await login.json()) as { csrfToken: string }).csrfToken };
+}
+
+/** A chain of steps on one diagnosis; a lane is held by one request at a time. */
+interface Lane { session?: { cookie: string; csrf: string } | undefined; diagnosis: string; after: string | null; count: number }
+
+function run(opts: { url: string; sessions?: { cookie: string; csrf: string }[]; diagnoses: string[]; bare: boolean }): Promise<autocannon.Result> {
+  let nextDiagnosis = 0;
+  const fresh = () => opts.diagnoses[nextDiagnosis++ % opts.diagnoses.length]!;
+  // autocannon resets a connection's context after each (one-request) sequence, so the chains
+  // live here: a request takes a free lane and gives it back with its response.
+  const free: Lane[] = Array.from({ length: CONNECTIONS + 10 }, (_, i) => ({ session: opts.sessions?.[i % opts.sessions.length], diagnosis: fresh(), after: null, count: 0 }));
+  return new Promise((resolve, reject) => {
+    autocannon({
+      url: opts.url, connections: CONNECTIONS, duration: DURATION, method: 'POST',
+      requests: [{
+        setupRequest: (req: autocannon.Request, context: { lane?: Lane; pending?: string }) => {
+          const lane = free.pop()!;
+          if (lane.count >= STEPS_PER_DIAGNOSIS) Object.assign(lane, { diagnosis: fresh(), after: null, count: 0 });
+          const now = new Date().toISOString();
+          context.lane = lane;
+          context.pending = randomUUID();
+          const body = { id: context.pending, after: lane.after, stepId: 'exciter', entered: '0,15k', note: '', startedAt: now, answeredAt: now };
+          return {
+            ...req,
+            path: opts.bare ? '/bare' : `/api/diagnoses/${lane.diagnosis}/steps`,
+            headers: { 'content-type': 'application/json', ...(lane.session ? { cookie: lane.session.cookie, 'x-csrf-token': lane.session.csrf } : {}) },
+            body: JSON.stringify(opts.bare ? { ...body, diagnosisId: lane.diagnosis } : body),
+          };
+        },
+        onResponse: (status: number, _body: string, context: { lane?: Lane; pending?: string }) => {
+          const lane = context.lane!;
+          if (status === 201) { lane.after = context.pending!; lane.count++; }
+          free.push(lane);
+        },
+      }],
+    } as autocannon.Options, (err, result) => (err ? reject(err) : resolve(result)));
+  });
+}
+
+const summary = (name: string, r: autocannon.Result) =>
+  `${name.padEnd(6)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   errors ${r.errors}   non-2xx ${r.non2xx}`;
+
+/** The server side: its own process, so autocannon does not share its event loop. */
+async function serve(): Promise<void> {
+  const env = await setUp();
+  process.send!({ base: env.base, diagnoses: env.diagnoses });
+  process.on('message', (m) => {
+    if (m !== 'stop') return;
+    env.server.close();
+    // let in-flight requests finish before the pools close
+    setTimeout(() => void env.pool.end().then(() => env.runtime.close()).then(() => process.exit(0)), 1000);
+  });
+}
+
+async function main(): Promise<void> {
+  const child = fork(fileURLToPath(import.meta.url), [], { env: { ...process.env, PERF_ROLE: 'server' }, execArgv: ['--import', 'tsx'] });
+  const env = await new Promise<{ base: string; diagnoses: string[] }>((resolve, reject) => {
+    child.once('message', (m) => resolve(m as { base: string; diagnoses: string[] }));
+    child.once('exit', (code) => reject(new Error(`the server process stopped (${code})`)));
+  });
+  const db = new pg.Client({ connectionString: process.env.DATABASE_URL });
+  await db.connect();
+  try {
+    const sessions = await Promise.all(Array.from({ length: CONNECTIONS }, () => signIn(env.base)));
+    const half = env.diagnoses.length / 2;
+    // warm both paths (JIT, pools, the pinned-version cache) before measuring
+    await run({ url: env.base, diagnoses: env.diagnoses.slice(half), bare: true });
+    await run({ url: env.base, sessions, diagnoses: env.diagnoses.slice(half), bare: false });
+    const bare = await run({ url: env.base, diagnoses: env.diagnoses.slice(0, half / 2), bare: true });
+    const steps = await run({ url: env.base, sessions, diagnoses: env.diagnoses.slice(half / 2, half), bare: false });
+    const ratio = steps.requests.average / bare.requests.average;
+    const { rows: [stored] } = await db.query<{ n: number; per: number }>(
+      'SELECT count(*)::int AS n, count(DISTINCT diagnosis_id)::int AS per FROM diagnosis_steps WHERE diagnosis_id = ANY($1::uuid[])', [env.diagnoses.slice(half / 2, half)]);
+    console.log(`\nBench steps, ${CONNECTIONS} connections, ${DURATION} s each (after a warm-up of each)`);
+    console.log(summary('bare', bare));
+    console.log(summary('steps', steps));
+    console.log(`ratio  ${(100 * ratio).toFixed(1)} % of the bare throughput; ${stored!.n} steps stored over ${stored!.per} diagnoses`);
+    const ok = ratio >= 0.5 && steps.latency.p99 < 50 && steps.errors === 0 && steps.non2xx === 0;
+    console.log(ok ? 'targets met (≥ 50 %, p99 < 50 ms, no errors)' : 'TARGETS MISSED (≥ 50 %, p99 < 50 ms, no errors)');
+    process.exitCode = ok ? 0 : 1;
+  } finally {
+    await db.end();
+    child.send('stop');
+    await new Promise((r) => child.once('exit', r));
+  }
+}
+
+if (process.env.PERF_ROLE === 'server') void serve();
+else void main();
