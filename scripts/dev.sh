@@ -11,7 +11,7 @@ WEB_PORT=${PORT:-3000}
 export API_PORT=${API_PORT:-$(free_port 3100)}
 pids=()
 cleanup() {
-  trap - INT TERM EXIT
+  trap '' INT TERM; trap - EXIT  # a second Ctrl-C must not skip stopping the database
   for p in "${pids[@]}"; do kill -TERM "$p" 2>/dev/null || true; done
   wait 2>/dev/null || true
   bash scripts/pg.sh stop

@@ -10,7 +10,7 @@ export DATABASE_URL
 export NODE_ENV=${NODE_ENV:-production} PORT=${PORT:-3000} DATA_DIR=${DATA_DIR:-$PWD/.data}
 server_pid=""
 cleanup() {
-  trap - INT TERM EXIT
+  trap '' INT TERM; trap - EXIT  # a second Ctrl-C must not skip stopping the database
   if [ -n "$server_pid" ] && kill -0 "$server_pid" 2>/dev/null; then kill -TERM "$server_pid" 2>/dev/null; wait "$server_pid" 2>/dev/null || true; fi
   bash scripts/pg.sh stop
   say "stopped"
