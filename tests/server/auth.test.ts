@@ -73,6 +73,24 @@ describe('signing in and out', () => {
     expect(expectEnvelope(res.body).code).toBe('invalid_json');
   });
 
+  it('every answer carries a strict Content-Security-Policy without inline scripts or styles', async () => {
+    const res = await request(env.app).get('/api/health');
+    const csp = String(res.headers['content-security-policy']);
+    expect(csp).toContain("default-src 'self'");
+    expect(csp).toContain("script-src 'self'");
+    expect(csp).toContain("frame-ancestors 'none'");
+    expect(csp).not.toContain('unsafe-inline');
+    expect(csp).not.toContain('unsafe-eval');
+    expect(res.headers['x-powered-by']).toBeUndefined();
+  });
+
+  it('the session cookie is HttpOnly and SameSite', async () => {
+    const res = await new Client(env.app).agent.get('/api/auth/csrf');
+    const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith('sw.sid='))!;
+    expect(cookie).toMatch(/HttpOnly/i);
+    expect(cookie).toMatch(/SameSite=Lax/i);
+  });
+
   it('passwords are stored as bcrypt hashes with cost 12', async () => {
     const u = await User.findOne({ where: { email: 'tech@larkspur.test' } });
     expect(u!.passwordHash).toMatch(/^\$2[aby]\$12\$/);
