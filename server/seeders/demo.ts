@@ -3,6 +3,7 @@ import { Shop, User, Membership, Vehicle, Meter } from '../models';
 import { hashPassword } from '../lib/passwords';
 import type { Role } from '@shared/schema/roles';
 import { seedDemoProcedures } from './demo-procedures';
+import { seedHistoryIfEmpty } from './history';
 
 // The invented demo scenario: a rental fleet serviced by one shop, and a second shop of the
 // same dealer group that the trainer also covers. Every name here is made up.
@@ -82,5 +83,7 @@ export async function seedDemo(deps: AppDeps): Promise<{ shopName: string; accou
     const lead = await User.findOne({ where: { email: 'lead@larkspur.test' }, transaction });
     await seedDemoProcedures(shop.id, transaction, lead?.id ?? null);
   });
+  // A few hundred invented diagnoses so Debrief is never empty on first run; tests seed their own.
+  if (deps.config.NODE_ENV !== 'test') await seedHistoryIfEmpty(deps, (await Shop.findOne({ where: { slug: DEMO_SHOP.slug } }))!.id, 300);
   return { shopName: DEMO_SHOP.name, accounts: DEMO_ACCOUNTS.map(({ email, roles }) => ({ email, roles })) };
 }

@@ -17,7 +17,7 @@ function ChainCard({ chain, doc, versionId, canDraft }: { chain: AdvisorChain; d
   const saving = chain.currentSeconds - chain.proposedSeconds;
   const rows = (list: AdvisorChain['current']) => list.map((c, i) => [i + 1, title(c.stepId), percent(c.revealShare, 1), formatDuration(c.seconds) + (c.secondsFrom === 'estimate' ? ' (estimate)' : ''),
     c.seconds > 0 ? (c.revealShare / (c.seconds / 60)).toFixed(3) : '–']);
-  const header = ['#', 'Check', 'Reveals the fault', 'Median time', 'p per minute'];
+  const header = ['#', 'Check', 'Reveals the fault', 'Median time', 'Chance per minute'];
   const err = draft.error instanceof ApiError ? draft.error : null;
   return (
     <Card className="flex flex-col gap-3">

@@ -6,8 +6,8 @@ import { Alert, Card, Spinner } from '../../../components/ui/card';
 import { debriefQueries } from '../api/queries';
 import { percent, STATUS_LABEL } from '../lib/format';
 import { ChartCard } from './chart-card';
+import { palette } from '../lib/palette';
 
-const COLOUR = { finished: '#17703a', handed_off: '#c45a0c', abandoned: '#b3261e', active: '#46505e' };
 
 /** How diagnoses end, and how often the fix held (first-time fix). */
 export function FindingsPanel({ q, doc }: { q: AnalyticsQuery; doc: ProcedureDocument }) {
@@ -15,8 +15,13 @@ export function FindingsPanel({ q, doc }: { q: AnalyticsQuery; doc: ProcedureDoc
   if (isLoading) return <Spinner label="Counting endings" />;
   if (error || !data) return <Alert title="The findings could not be loaded">{(error as Error | null)?.message}</Alert>;
   const title = (id: string) => doc.steps.find((s) => s.id === id)?.title ?? id;
-  const rows = data.endings.map((e) => ({ name: title(e.stepId), status: e.status, count: e.count, share: e.share }));
+  const rows = data.endings.map((e) => ({
+    name: e.status === 'finished' ? title(e.stepId) : `${title(e.stepId)} (${STATUS_LABEL[e.status].toLowerCase()})`, status: e.status, count: e.count, share: e.share,
+  }));
+  const top = Math.max(0.05, ...rows.map((r) => r.share));
   const ftf = data.firstTimeFix;
+  const p = palette();
+  const COLOUR = { finished: p.go, handed_off: p.signal, abandoned: p.stop, active: p.inkSoft };
   return (
     <div className="flex flex-col gap-4">
       <div className="grid gap-4 md:grid-cols-3">
@@ -30,12 +35,12 @@ export function FindingsPanel({ q, doc }: { q: AnalyticsQuery; doc: ProcedureDoc
       <ChartCard title="How diagnoses end" question="Which findings are common, and where do technicians hand off or give up?" csvName="endings"
         table={{ header: ['Ending step', 'Status', 'Diagnoses', 'Share'], rows: rows.map((r) => [r.name, STATUS_LABEL[r.status], r.count, percent(r.share, 1)]) }}
         chart={
-          <div className="h-96" role="img" aria-label="Bar chart of the share of each ending">
+          <div style={{ height: 60 + rows.length * 30 }} role="img" aria-label="Bar chart of the share of each ending">
             <ResponsiveContainer>
               <BarChart data={rows} layout="vertical" margin={{ left: 24, right: 24 }}>
-                <CartesianGrid strokeDasharray="3 3" horizontal={false} stroke="#d6d0c2" />
-                <XAxis type="number" tickFormatter={(v: number) => percent(v)} />
-                <YAxis type="category" dataKey="name" width={220} tick={{ fontSize: 13 }} />
+                <CartesianGrid strokeDasharray="3 3" horizontal={false} stroke={p.line} />
+                <XAxis type="number" domain={[0, Math.ceil(top * 20) / 20]} tickCount={6} tickFormatter={(v: number) => percent(v)} />
+                <YAxis type="category" dataKey="name" width={260} interval={0} tick={{ fontSize: 13 }} />
                 <Tooltip formatter={(v) => percent(Number(v), 1)} labelFormatter={(l) => String(l)} />
                 <Bar dataKey="share" name="Share of ended diagnoses" isAnimationActive={false}>
                   {rows.map((r, i) => <Cell key={i} fill={COLOUR[r.status]} />)}

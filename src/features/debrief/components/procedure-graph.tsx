@@ -4,12 +4,12 @@ import '@xyflow/react/dist/style.css';
 import type { ProcedureDocument } from '@shared/schema';
 import { cx } from '../../../components/ui/cx';
 import { positions, type GraphEdge, type GraphNodeData } from '../lib/graph';
+import { heatRamp, palette } from '../lib/palette';
 
 // Read-only procedure graph for Debrief (lazy-loaded with React Flow). Heat and path use our
 // signal colour in five steps; endings keep the ISO 5807 terminal shape (rounded).
 
 const FILL = ['bg-panel', 'bg-signal-soft', 'bg-signal/30', 'bg-signal/55', 'bg-signal/80'];
-const EDGE = ['#d6d0c2', '#e9b98c', '#d98a45', '#c45a0c', '#8f3f06'];
 const KIND_WORD: Record<string, string> = {
   reading: 'Reading', observation: 'Observation', task: 'Task', formula: 'Formula', finding: 'Finding', handoff: 'Hand-off',
 };
@@ -30,24 +30,28 @@ function StepNode({ data }: NodeProps<Node<GraphNodeData>>) {
 
 const nodeTypes = { step: StepNode };
 
-export default function ProcedureGraph({ doc, graph, label, onSelect }: {
+export default function ProcedureGraph({ doc, graph, label, onSelect, focus }: {
   doc: ProcedureDocument;
   graph: { nodes: { id: string; data: GraphNodeData }[]; edges: GraphEdge[] };
   label: string;
   onSelect?: (stepId: string) => void;
+  /** Steps to fit in view at first (the path of a diagnosis); all steps when left out. */
+  focus?: string[];
 }) {
   const pos = useMemo(() => positions(doc), [doc]);
   const nodes: Node<GraphNodeData>[] = graph.nodes.map((n) => ({ ...n, type: 'step', position: pos.get(n.id) ?? { x: 0, y: 0 }, draggable: false, connectable: false }));
+  const p = palette();
+  const ramp = heatRamp(p);
   const edges: Edge[] = graph.edges.map((e) => ({
     id: e.id, source: e.source, target: e.target, label: e.label || undefined,
-    style: { stroke: EDGE[e.level], strokeWidth: 1.5 + e.level * 1.2 },
-    labelStyle: { fontSize: 12, fill: '#1d232c' }, labelBgStyle: { fill: '#f5f2ea' },
+    style: { stroke: ramp[e.level], strokeWidth: 1.5 + e.level * 1.2 },
+    labelStyle: { fontSize: 12, fill: p.ink }, labelBgStyle: { fill: p.paper },
   }));
   return (
     <div className="h-[46rem] rounded-[var(--radius-card)] border border-line bg-paper" role="figure" aria-label={label}>
-      <ReactFlow nodes={nodes} edges={edges} nodeTypes={nodeTypes} fitView fitViewOptions={{ padding: 0.04 }} minZoom={0.2} nodesDraggable={false} nodesConnectable={false}
+      <ReactFlow nodes={nodes} edges={edges} nodeTypes={nodeTypes} fitView fitViewOptions={{ padding: 0.08, ...(focus?.length ? { nodes: focus.map((id) => ({ id })), maxZoom: 1 } : {}) }} minZoom={0.2} nodesDraggable={false} nodesConnectable={false}
         elementsSelectable={Boolean(onSelect)} onNodeClick={onSelect ? (_e, n) => onSelect(n.id) : undefined}>
-        <Background gap={24} color="#e4ded0" />
+        <Background gap={24} color={p.line} />
         <Controls showInteractive={false} />
       </ReactFlow>
     </div>

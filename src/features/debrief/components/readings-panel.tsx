@@ -6,14 +6,16 @@ import { Alert, EmptyState, Spinner } from '../../../components/ui/card';
 import { debriefQueries } from '../api/queries';
 import { formatValue, percent } from '../lib/format';
 import { ChartCard } from './chart-card';
+import { palette } from '../lib/palette';
 
 /** A bin's colour by where it lies against the limits: inside, outside, or across a limit. */
 function binColour(bin: { lo: number; hi: number }, limits: ReadingFigure['limits']): string {
   const { min, max } = limits;
+  const p = palette();
   const crosses = (l?: number) => l !== undefined && bin.lo < l && bin.hi > l;
-  if (crosses(min) || crosses(max)) return '#6b3fa0';
-  if ((min !== undefined && bin.hi <= min) || (max !== undefined && bin.lo >= max)) return '#b3261e';
-  return '#17703a';
+  if (crosses(min) || crosses(max)) return p.edge;
+  if ((min !== undefined && bin.hi <= min) || (max !== undefined && bin.lo >= max)) return p.stop;
+  return p.go;
 }
 
 function ReadingCard({ r, title }: { r: ReadingFigure; title: string }) {
@@ -32,7 +34,7 @@ function ReadingCard({ r, title }: { r: ReadingFigure; title: string }) {
           <div className="h-64" role="img" aria-label={`Histogram of ${title} readings; limits ${limitText}`}>
             <ResponsiveContainer>
               <BarChart data={bins} barCategoryGap={1} margin={{ left: 8, right: 8, bottom: 40 }}>
-                <CartesianGrid strokeDasharray="3 3" vertical={false} stroke="#d6d0c2" />
+                <CartesianGrid strokeDasharray="3 3" vertical={false} stroke={palette().line} />
                 <XAxis dataKey="label" angle={-35} textAnchor="end" interval={1} tick={{ fontSize: 11 }} height={60} />
                 <YAxis allowDecimals={false} />
                 <Tooltip />

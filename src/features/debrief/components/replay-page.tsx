@@ -40,7 +40,7 @@ export function ReplayPage() {
         <section aria-labelledby="graph-h" className="flex flex-col gap-3">
           <h2 id="graph-h" className="text-xl">Path through the procedure</h2>
           <Suspense fallback={<Spinner label="Drawing the procedure" />}>
-            {graph && <ProcedureGraph doc={data.document} graph={graph} label="Procedure graph with the path taken" onSelect={setSelected} />}
+            {graph && <ProcedureGraph doc={data.document} graph={graph} label="Procedure graph with the path taken" onSelect={setSelected} focus={data.path} />}
           </Suspense>
           <Card>
             <h2 className="mb-2 text-xl">Coaching</h2>

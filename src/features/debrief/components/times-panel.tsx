@@ -6,6 +6,7 @@ import { Alert, Card, Spinner } from '../../../components/ui/card';
 import { debriefQueries } from '../api/queries';
 import { formatDuration, minutes } from '../lib/format';
 import { ChartCard } from './chart-card';
+import { palette } from '../lib/palette';
 
 /** Median and quartiles of time per step and per diagnosis (type 7 quantiles, stated on screen). */
 export function TimesPanel({ q, doc }: { q: AnalyticsQuery; doc: ProcedureDocument }) {
@@ -28,15 +29,15 @@ export function TimesPanel({ q, doc }: { q: AnalyticsQuery; doc: ProcedureDocume
       <ChartCard title="Time per step" question="Which steps take long, and how much do they vary?" csvName="time-per-step"
         table={{ header: ['Step', 'Answers', 'Q1 (min)', 'Median (min)', 'Q3 (min)'], rows: rows.map((r) => [r.name, r.n, minutes(r.q1), minutes(r.median), minutes(r.q3)]) }}
         chart={
-          <div className="h-96" role="img" aria-label="Median minutes per step with the quartile range">
+          <div style={{ height: 60 + rows.length * 30 }} role="img" aria-label="Median minutes per step with the quartile range">
             <ResponsiveContainer>
               <BarChart data={rows} layout="vertical" margin={{ left: 24, right: 24 }}>
-                <CartesianGrid strokeDasharray="3 3" horizontal={false} stroke="#d6d0c2" />
+                <CartesianGrid strokeDasharray="3 3" horizontal={false} stroke={palette().line} />
                 <XAxis type="number" unit=" min" />
-                <YAxis type="category" dataKey="name" width={220} tick={{ fontSize: 13 }} />
+                <YAxis type="category" dataKey="name" width={260} interval={0} tick={{ fontSize: 13 }} />
                 <Tooltip formatter={(v) => `${Number(v).toFixed(1)} min`} />
-                <Bar dataKey="medianMin" name="Median" fill="#c45a0c" isAnimationActive={false}>
-                  <ErrorBar dataKey="spread" width={6} stroke="#1d232c" direction="x" />
+                <Bar dataKey="medianMin" name="Median" fill={palette().signal} isAnimationActive={false}>
+                  <ErrorBar dataKey="spread" width={6} stroke={palette().ink} direction="x" />
                 </Bar>
               </BarChart>
             </ResponsiveContainer>
