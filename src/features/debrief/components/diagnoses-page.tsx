@@ -66,12 +66,21 @@ export function DiagnosesPage() {
       update({ page: next.pageIndex + 1, pageSize: next.pageSize });
     },
   });
+  const procedures = useQuery(debriefQueries.procedures());
+  const endingTitle = (id: string) =>
+    procedures.data?.flatMap((p) => p.document.steps).find((st) => st.id === id)?.title ?? rows.find((r) => r.endingStepId === id)?.endingTitle ?? id;
   const pages = Math.max(1, Math.ceil((data?.total ?? 0) / query.pageSize));
   return (
     <>
       <PageHeader title="Diagnoses" subtitle="Every diagnosis of the shop. Open one to replay it and leave a coaching note."
         actions={<a className={buttonClass('secondary')} href={diagnosesCsvUrl(query)} download>Export CSV</a>} />
       <Card className="mb-4"><DiagnosisFilters q={query} onChange={update} /></Card>
+      {query.endingStepId && (
+        <p className="mb-3 flex flex-wrap items-center gap-2">
+          <Badge tone="signal">Only diagnoses that ended at “{endingTitle(query.endingStepId)}”</Badge>
+          <Button variant="ghost" onClick={() => update({ endingStepId: undefined })}>Show all endings</Button>
+        </p>
+      )}
       {error && <Alert title="The diagnoses could not be loaded">{(error as Error).message}</Alert>}
       {isLoading ? <Spinner label="Loading diagnoses" /> : (
         <div className={cx('overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel', isFetching && 'opacity-70')}>
@@ -86,7 +95,7 @@ export function DiagnosesPage() {
                       <th key={h.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
                         className="px-3 py-2 text-sm font-bold uppercase tracking-wide text-ink-soft">
                         {h.column.getCanSort() ? (
-                          <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-8 items-center gap-1 hover:text-ink">
+                          <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-8 items-center gap-1 uppercase tracking-wide hover:text-ink">
                             <table.FlexRender header={h} /><span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
                           </button>
                         ) : <table.FlexRender header={h} />}
