@@ -2,7 +2,7 @@ import type { ProcedureDocument, Step } from '../schema/procedure';
 import { branchesOf } from '../schema/branches';
 import { depthFirst, isBackEdge, stronglyConnected, type DepthFirst } from './algorithms';
 import { buildGraph, type ProcedureGraph } from './graph';
-import { expectedToEnding } from './markov';
+import { almostSurelyAbsorbed, expectedToEnding } from './markov';
 
 /** Recorded branch counts from finished diagnoses: step id → branch handle → times taken. */
 export type BranchCounts = Readonly<Record<string, Readonly<Record<string, number>>>>;
@@ -147,17 +147,26 @@ export function pathFigures(doc: ProcedureDocument, options: PathFiguresOptions 
   const probability = branchProbabilities(g, options);
   const scc = stronglyConnected(g);
   const dfs = depthFirst(g, g.start);
-  const bySteps = expectedToEnding({ graph: g, probability, cost: ones }, scc, dfs.order);
-  const byMinutes = expectedToEnding({ graph: g, probability, cost: minutes }, scc, dfs.order);
-  const perStep: Record<string, StepFigures> = {};
-  for (let v = 0; v < g.size; v++) perStep[g.steps[v]!.id] = { expectedSteps: bySteps.expected[v]!, expectedMinutes: byMinutes.expected[v]! };
+  const prepared = { scc, order: dfs.order, ok: almostSurelyAbsorbed(g, probability) };
+  const bySteps = expectedToEnding({ graph: g, probability, cost: ones }, prepared);
+  const byMinutes = expectedToEnding({ graph: g, probability, cost: minutes }, prepared);
+  // The record is built on first access: 20 000 small objects cost more than the solve itself,
+  // and most callers read a handful of steps, or none.
+  let perStep: Record<string, StepFigures> | undefined;
+  const buildPerStep = () => {
+    const out: Record<string, StepFigures> = {};
+    for (let v = 0; v < g.size; v++) out[g.steps[v]!.id] = { expectedSteps: bySteps.expected[v]!, expectedMinutes: byMinutes.expected[v]! };
+    return out;
+  };
   const pair = (a: number | null, b: number | null): PathLength | null => (a === null || b === null ? null : { steps: a, minutes: b });
   const startOk = g.start >= 0 && Number.isFinite(bySteps.expected[g.start]!);
   return {
     shortest: g.start < 0 ? null : pair(cheapestToEnding(g, ones), cheapestToEnding(g, minutes)),
     longest: g.start < 0 ? null : pair(longestToEnding(g, dfs, ones), longestToEnding(g, dfs, minutes)),
     expected: startOk ? { steps: bySteps.expected[g.start]!, minutes: byMinutes.expected[g.start]! } : null,
-    perStep,
+    get perStep() {
+      return (perStep ??= buildPerStep());
+    },
     hasLoops: Array.prototype.some.call(scc.cyclic, (c: number) => c === 1),
     converged: bySteps.converged && byMinutes.converged,
   };

@@ -27,18 +27,38 @@ export interface ProcedureGraph {
   readonly duplicates: readonly string[];
 }
 
-function buildIndex(doc: ProcedureDocument): { steps: Step[]; index: Map<string, number>; duplicates: string[] } {
-  const steps: Step[] = [];
+function buildIndex(doc: ProcedureDocument): { steps: readonly Step[]; index: Map<string, number>; duplicates: string[] } {
   const index = new Map<string, number>();
   const duplicates = new Set<string>();
-  for (const step of doc.steps) {
-    if (index.has(step.id)) duplicates.add(step.id);
-    else {
-      index.set(step.id, steps.length);
-      steps.push(step);
-    }
+  for (let i = 0; i < doc.steps.length; i++) {
+    const id = doc.steps[i]!.id;
+    if (index.has(id)) duplicates.add(id);
+    else index.set(id, index.size);
   }
+  // Without duplicates the document's own array serves; otherwise keep each id's first step.
+  if (duplicates.size === 0) return { steps: doc.steps, index, duplicates: [] };
+  const seen = new Set<string>();
+  const steps = doc.steps.filter((s) => {
+    if (seen.has(s.id)) return false;
+    seen.add(s.id);
+    return true;
+  });
   return { steps, index, duplicates: [...duplicates] };
+}
+
+function branchCount(step: Step): number {
+  switch (step.kind) {
+    case 'reading':
+      return step.bands.length + (step.borderline.action === 'branch' ? 1 : 0);
+    case 'formula':
+      return step.bands.length + (step.next === undefined ? 0 : 1);
+    case 'observation':
+      return step.answers.length;
+    case 'task':
+      return step.next === undefined ? 0 : 1;
+    default:
+      return 0;
+  }
 }
 
 /** Calls `visit(to, local)` for each branch of a step, in `branchesOf` order, without allocating. */
@@ -70,7 +90,7 @@ export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
   const n = steps.length;
   const outStart = new Int32Array(n + 1);
   let capacity = 0;
-  for (const step of steps) forEachTarget(step, () => capacity++);
+  for (const step of steps) capacity += branchCount(step);
   const targetBuffer = new Int32Array(capacity);
   const localBuffer = new Int32Array(capacity);
   const danglingFrom: number[] = [];

@@ -22,7 +22,7 @@ const MAX_SWEEPS = 20_000;
 const TOLERANCE = 1e-10;
 
 /** Steps from which the chain is absorbed with probability 1. */
-function almostSurelyAbsorbed(g: ProcedureGraph, p: Float64Array): Uint8Array {
+export function almostSurelyAbsorbed(g: ProcedureGraph, p: Float64Array): Uint8Array {
   // Work on the positive-probability subgraph: steps that cannot reach an ending there are bad,
   // and so is every step that can reach a bad one.
   const positive = { ...g, ...positiveEdges(g, p) };
@@ -137,14 +137,23 @@ export interface ChainResult {
 }
 
 /** Expected cost from every step to an ending. */
-export function expectedToEnding(
-  input: ChainInput,
-  scc: Components = stronglyConnected(input.graph),
-  order: Int32Array = depthFirst(input.graph, input.graph.start).order,
-): ChainResult {
+/** Work that several solves over one graph and one set of probabilities can share. */
+export interface ChainPrepared {
+  readonly scc: Components;
+  /** Depth-first order from the start (reverse postorder). */
+  readonly order: Int32Array;
+  /** Steps absorbed with probability 1 (`almostSurelyAbsorbed`). */
+  readonly ok: Uint8Array;
+}
+
+export function prepareChain(g: ProcedureGraph, probability: Float64Array): ChainPrepared {
+  return { scc: stronglyConnected(g), order: depthFirst(g, g.start).order, ok: almostSurelyAbsorbed(g, probability) };
+}
+
+export function expectedToEnding(input: ChainInput, prepared: ChainPrepared = prepareChain(input.graph, input.probability)): ChainResult {
+  const { scc, order, ok } = prepared;
   const g = input.graph;
   const t = new Float64Array(g.size);
-  const ok = almostSurelyAbsorbed(g, input.probability);
   // Steps grouped by component (counting sort). Within a component, Gauss–Seidel converges in a
   // few sweeps when a step is updated after the steps it leads to: depth-first postorder gives
   // that for every branch except the ones that close a loop.
