@@ -5,7 +5,7 @@ import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
 import { parseInput } from '../lib/validate';
 import { loadPinnedVersion } from './bench.service';
-import { decideContext, decideStep, type PathRow } from './diagnosis-decide';
+import { decideStep, withMeter, type PathRow } from './diagnosis-decide';
 import { FindingOutcomeInput, HandoffOutcomeInput, type StepInput } from './diagnosis.schema';
 import { notifyHandoff } from './report.service';
 
@@ -34,7 +34,8 @@ export function payloadHash(input: unknown): string {
 const HEAD_SQL = `
   SELECT d.status, d.technician_id, d.procedure_version_id, m.spec->'entries' AS meter,
     (SELECT coalesce(max(seq), 0) FROM diagnosis_steps WHERE diagnosis_id = d.id) AS max_seq,
-    (SELECT coalesce(json_agg(json_build_object('id', s.id, 'seq', s.seq, 'stepId', s.step_id, 'value', s.value, 'next', s.next_step_id) ORDER BY s.seq), '[]')
+    (SELECT coalesce(json_agg(json_build_object('id', s.id, 'seq', s.seq, 'stepId', s.step_id, 'next', s.next_step_id, 'entered', s.entered,
+        'lead', s.shown->>'leadEntered', 'answerId', s.answer_id, 'acknowledged', coalesce((s.shown->>'acknowledged')::boolean, false)) ORDER BY s.seq), '[]')
        FROM diagnosis_steps s WHERE s.diagnosis_id = d.id AND NOT s.superseded) AS path,
     (SELECT row_to_json(x) FROM (SELECT diagnosis_id, payload_hash, seq, step_id, value, verdict, band_id, answer_id, next_step_id
        FROM diagnosis_steps WHERE id = :rowId) x) AS existing
@@ -76,14 +77,14 @@ function checkActive(head: Head): void {
   }
 }
 
-/** Where the new step must be: the start, or the step the `after` row routed to. */
-function expectedPlace(path: readonly PathRow[], after: string | null, start: string): { keep: PathRow[]; expected: string | null } {
-  if (after === null) return { keep: [], expected: start };
+/** The stored path up to the row the new step follows (none for the start). */
+function keptPath(path: readonly PathRow[], after: string | null): PathRow[] {
+  if (after === null) return [];
   const i = path.findIndex((r) => r.id === after);
   if (i < 0) {
     throw new AppError(422, 'not_on_path', 'The step this answer follows is not on the current path of the diagnosis (it was changed or never sent). Reload the diagnosis and answer again.');
   }
-  return { keep: path.slice(0, i + 1), expected: path[i]!.next };
+  return path.slice(0, i + 1);
 }
 
 function outcomeFor(kind: string, input: StepInput): { endStatus: string | null; outcome: string | null } {
@@ -98,11 +99,8 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
   if (!step) {
     throw new AppError(422, 'unknown_step', `Step "${input.stepId}" is not part of version ${version.number} of "${version.title}", which this diagnosis follows. Reload the diagnosis.`);
   }
-  const { keep, expected } = expectedPlace(head.path, input.after, version.document.start);
-  if (expected !== input.stepId) {
-    throw new AppError(422, 'branch_not_allowed', `Version ${version.number} of "${version.title}" does not lead to "${input.stepId}" from there${expected ? `; the next step is "${expected}"` : ''}. Reload the diagnosis.`);
-  }
-  const decided = decideStep(step, input, decideContext(keep, version.steps, head.meter ?? []));
+  const keep = keptPath(head.path, input.after);
+  const decided = decideStep(withMeter(version.document, head.meter ?? []), version.steps, keep, input);
   const { endStatus, outcome } = outcomeFor(step.kind, input);
   const seq = Number(head.max_seq) + 1;
   const [written] = await deps.sequelize.query<{ inserted: number }>(WRITE_SQL, {

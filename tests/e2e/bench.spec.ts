@@ -21,13 +21,13 @@ function pngBytes(): Buffer {
   return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)), chunk('IEND', Buffer.alloc(0))]);
 }
 
-/** Waits until the service worker controls the page, so the app shell is cached for offline use. */
+/** Waits until the service worker controls the page and holds what an offline reload needs. */
 async function serviceWorkerReady(page: Page): Promise<void> {
   await page.evaluate(async () => { await navigator.serviceWorker.ready; });
-  if (!(await page.evaluate(() => !!navigator.serviceWorker.controller))) await page.reload();
-  await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true);
-  await page.reload(); // fetch "who am I" once through the worker so it can answer it offline
+  await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller), { timeout: 20_000 }).toBe(true);
+  await page.goto('/bench'); // fetch "who am I" through the worker so it can answer it offline
   await expect(page.getByRole('heading', { name: 'Bench' })).toBeVisible();
+  await expect.poll(() => page.evaluate(async () => !!(await (await caches.open('sw-session')).match('/api/auth/me'))), { timeout: 20_000 }).toBe(true);
 }
 
 async function goOffline(context: BrowserContext, page: Page): Promise<void> {

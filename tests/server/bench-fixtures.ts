@@ -4,6 +4,7 @@ import path from 'node:path';
 import { doc, finding, handoff, ohmsReading, observation, task } from '../shared/fixtures';
 import { Meter, Procedure, ProcedureVersion, Shop, Vehicle } from '../../server/models';
 import type { TestEnv } from './harness';
+import type { StepInput } from '@shared/schema';
 
 /**
  * A small published procedure with every step kind, so the Bench API tests do not depend on the
@@ -16,9 +17,9 @@ export const benchDoc = doc([
   {
     ...ohmsReading('pulser', 50, 170, { low: 'coilFinding', ok: 'combined', high: 'coilFinding' }), leadNull: true,
     safety: [{ signal: 'DANGER', text: 'Test text: the charge circuit is live while cranking.' }],
-  },
+  } as StepInput,
   { id: 'combined', kind: 'formula', title: 'Combined', expression: 'parallel(exciter, pulser)', quantity: 'resistance', unit: 'Ω', next: 'cdiFinding' },
-  { ...finding('cdiFinding', 'Replace the CDI unit'), parts: [{ name: 'CDI unit', quantity: 1 }] },
+  { ...finding('cdiFinding', 'Replace the CDI unit'), parts: [{ name: 'CDI unit', quantity: 1 }] } as StepInput,
   finding('coilFinding', 'Replace the stator'),
   finding('plugFinding', 'Clean the plug'),
   handoff('senior'),

@@ -136,7 +136,8 @@ describe('stepping through the pinned version', () => {
     const a = await step(id, 'killLead', null);
     const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
     const sql: string[] = [];
-    const seq = env.runtime.deps.sequelize;
+    // Sequelize's own logging hook sees every statement it sends.
+    const seq = env.runtime.deps.sequelize as unknown as { options: { logging: unknown } };
     const before = seq.options.logging;
     seq.options.logging = (s: string) => { sql.push(s); };
     try {
