@@ -1,5 +1,4 @@
 import { QUANTILE_DEFINITION } from '@shared/stats/quantile';
-import { binSpec } from '@shared/stats/histogram';
 import { resolveLimits } from '@shared/measure/verdict';
 import type {
   BranchFigure, DiagnosisStatus, FindingsAnalytics, Quart, ReadingFigure, ReadingsAnalytics, StepFigure, StepsAnalytics, TimesAnalytics,
@@ -31,14 +30,19 @@ export function handleOf(bandId: unknown, answerId: unknown): string {
 /** Per step: how many diagnoses reached it and how many ended there; per branch: the share taken. */
 export async function stepsAnalytics(sql: Sql, scope: Scope): Promise<StepsAnalytics> {
   const b = scopeBinds(scope);
-  const [reached, ended, branches] = await Promise.all([
-    sql(`WITH ${SCOPED}, ${STEPS_ON_PATH}
-      SELECT step_id, count(*) AS n FROM (
+  // One statement: the step rows are read once (materialised) and counted two ways.
+  const [row] = await sql(`WITH ${SCOPED}, ${STEPS_ON_PATH.replace('s AS (', 's AS MATERIALIZED (')},
+    reached AS (SELECT step_id, count(*) AS n FROM (
         SELECT diagnosis_id, step_id FROM s UNION SELECT id, ending_step_id FROM d WHERE ending_step_id IS NOT NULL) x
-      GROUP BY step_id`, b),
-    sql(`WITH ${SCOPED} SELECT ending_step_id AS step_id, status, count(*) AS n FROM d GROUP BY 1, 2`, b),
-    sql(`WITH ${STEPS_ON_PATH} SELECT step_id, band_id, answer_id, count(*) AS n FROM s GROUP BY 1, 2, 3`, b),
-  ]);
+      GROUP BY step_id),
+    ended AS (SELECT ending_step_id AS step_id, status, count(*) AS n FROM d GROUP BY 1, 2),
+    branches AS (SELECT step_id, band_id, answer_id, count(*) AS n FROM s GROUP BY 1, 2, 3)
+    SELECT (SELECT json_agg(x) FROM reached x) AS reached, (SELECT json_agg(x) FROM ended x) AS ended,
+      (SELECT json_agg(x) FROM branches x) AS branches`, b);
+  type Rec = Record<string, unknown>;
+  const reached = (row?.reached ?? []) as Rec[];
+  const ended = (row?.ended ?? []) as Rec[];
+  const branches = (row?.branches ?? []) as Rec[];
   const total = ended.reduce((a, r) => a + num(r.n), 0);
   const figures = new Map<string, StepFigure>();
   const fig = (id: string) => figures.get(id) ?? figures.set(id, { stepId: id, reached: 0, finished: 0, handedOff: 0, abandoned: 0, active: 0 }).get(id)!;
@@ -75,47 +79,52 @@ export async function findingsAnalytics(sql: Sql, scope: Scope): Promise<Finding
   };
 }
 
-/** Per Reading step: a histogram against the limits, the borderline share, and values by technician. */
+const BINS = 20;
+
+/**
+ * Per Reading step: a histogram against the limits, the borderline share and values by technician,
+ * in one statement: the reading rows are read once (materialised) and grouped three ways. The bins
+ * span the values and the step's limits (as shared/stats/histogram.ts binSpec does).
+ */
 export async function readingsAnalytics(sql: Sql, scope: Scope): Promise<ReadingsAnalytics> {
-  const b = scopeBinds(scope);
-  const readings = `r AS (SELECT step_id, value, verdict, technician_id FROM s WHERE kind = 'reading' AND value IS NOT NULL)`;
-  const byTech = await sql(`WITH ${STEPS_ON_PATH}, ${readings}
-    SELECT r.step_id, r.technician_id, u.name, count(*) AS n, min(value) AS lo, max(value) AS hi,
-      count(*) FILTER (WHERE verdict IN ('borderline-low', 'borderline-high')) AS borderline,
-      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY value) AS q
-    FROM r JOIN users u ON u.id = r.technician_id GROUP BY 1, 2, 3 ORDER BY 1, 3`, b);
   const steps = new Map(scope.doc.steps.map((s) => [s.id, s] as const));
-  const specs = new Map<string, ReturnType<typeof binSpec>>();
-  for (const r of byTech) {
-    const id = String(r.step_id);
-    const prev = specs.get(id);
-    const lo = Math.min(num(r.lo), prev?.lo ?? Infinity);
-    const hi = Math.max(num(r.hi), prev?.hi ?? -Infinity);
-    const step = steps.get(id);
-    const limits = step?.kind === 'reading' && step.limits ? resolveLimits(step.limits) : {};
-    specs.set(id, binSpec({ min: lo, max: hi }, limits, 20));
-  }
-  const ids = [...specs.keys()];
-  const bins = ids.length ? await sql(`WITH ${STEPS_ON_PATH}, ${readings}, spec AS (
-      SELECT * FROM unnest($5::text[], $6::float8[], $7::float8[], $8::int[]) AS t(step_id, lo, hi, cnt))
-    SELECT r.step_id, LEAST(GREATEST(width_bucket(r.value, spec.lo, spec.hi, spec.cnt), 1), spec.cnt) AS bin, count(*) AS n
-    FROM r JOIN spec ON spec.step_id = r.step_id GROUP BY 1, 2`,
-  [...b, ids, ids.map((i) => specs.get(i)!.lo), ids.map((i) => specs.get(i)!.hi), ids.map((i) => specs.get(i)!.count)]) : [];
-  const out: ReadingFigure[] = ids.map((id) => {
-    const spec = specs.get(id)!;
-    const w = (spec.hi - spec.lo) / spec.count;
-    const counts = new Array<number>(spec.count).fill(0);
-    for (const r of bins) if (r.step_id === id) counts[num(r.bin) - 1] = num(r.n);
-    const techs = byTech.filter((r) => r.step_id === id);
-    const n = techs.reduce((a, r) => a + num(r.n), 0);
-    const borderline = techs.reduce((a, r) => a + num(r.borderline), 0);
+  const limited = scope.doc.steps.flatMap((s) => (s.kind === 'reading' && s.limits ? [{ id: s.id, ...resolveLimits(s.limits) }] : []));
+  const [row] = await sql(`WITH ${STEPS_ON_PATH},
+    r AS MATERIALIZED (SELECT step_id, value, verdict, technician_id FROM s WHERE kind = 'reading' AND value IS NOT NULL),
+    lim AS (SELECT * FROM unnest($5::text[], $6::float8[], $7::float8[]) AS t(step_id, lmin, lmax)),
+    raw AS (SELECT r.step_id, LEAST(min(r.value), min(lim.lmin)) AS lo, GREATEST(max(r.value), max(lim.lmax)) AS hi
+      FROM r LEFT JOIN lim ON lim.step_id = r.step_id GROUP BY r.step_id),
+    spec AS (SELECT step_id,
+      CASE WHEN hi > lo THEN lo ELSE lo - COALESCE(NULLIF(abs(lo) * 0.05, 0), 1) END AS lo,
+      CASE WHEN hi > lo THEN hi ELSE hi + COALESCE(NULLIF(abs(lo) * 0.05, 0), 1) END AS hi FROM raw),
+    tech AS (SELECT r.step_id, r.technician_id, count(*) AS n,
+      count(*) FILTER (WHERE verdict IN ('borderline-low', 'borderline-high')) AS borderline,
+      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY value) AS q FROM r GROUP BY 1, 2),
+    binned AS (SELECT r.step_id, LEAST(GREATEST(width_bucket(r.value, spec.lo, spec.hi, ${BINS}), 1), ${BINS}) AS bin, count(*) AS n
+      FROM r JOIN spec ON spec.step_id = r.step_id GROUP BY 1, 2)
+    SELECT (SELECT json_agg(x) FROM spec x) AS specs, (SELECT json_agg(x) FROM binned x) AS bins,
+      (SELECT json_agg(t ORDER BY t.step_id, t.name) FROM (SELECT tech.*, u.name FROM tech JOIN users u ON u.id = tech.technician_id) t) AS techs`,
+  [...scopeBinds(scope), limited.map((l) => l.id), limited.map((l) => l.min ?? null), limited.map((l) => l.max ?? null)]);
+  type Rec = Record<string, unknown>;
+  const specs = (row?.specs ?? []) as Rec[];
+  const bins = (row?.bins ?? []) as Rec[];
+  const techs = (row?.techs ?? []) as Rec[];
+  const out: ReadingFigure[] = specs.map((sp) => {
+    const id = String(sp.step_id);
+    const lo = num(sp.lo);
+    const w = (num(sp.hi) - lo) / BINS;
+    const counts = new Array<number>(BINS).fill(0);
+    for (const b of bins) if (b.step_id === id) counts[num(b.bin) - 1] = num(b.n);
+    const mine = techs.filter((t) => t.step_id === id);
+    const n = mine.reduce((a, t) => a + num(t.n), 0);
+    const borderline = mine.reduce((a, t) => a + num(t.borderline), 0);
     const step = steps.get(id);
     const reading = step?.kind === 'reading' ? step : null;
     return {
       stepId: id, quantity: reading?.quantity ?? null, unit: reading?.unit ?? null,
       limits: reading?.limits ? resolveLimits(reading.limits) : {}, n, borderline, borderlineShare: n ? borderline / n : null,
-      bins: counts.map((count, i) => ({ lo: spec.lo + i * w, hi: spec.lo + (i + 1) * w, count })),
-      byTechnician: techs.map((r) => ({ technicianId: String(r.technician_id), technicianName: String(r.name), borderline: num(r.borderline), ...quart(r) })),
+      bins: counts.map((count, i) => ({ lo: lo + i * w, hi: lo + (i + 1) * w, count })),
+      byTechnician: mine.map((t) => ({ technicianId: String(t.technician_id), technicianName: String(t.name), borderline: num(t.borderline), ...quart(t) })),
     };
   });
   return { readings: out };
