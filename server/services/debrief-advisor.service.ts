@@ -22,7 +22,7 @@ import { SCOPED, STEP_SCOPE, num, numOrNull, parseDocument, scopeBinds, type Sco
 async function chainFigures(sql: Sql, scope: Scope, stepIds: string[]) {
   const rows = await sql(`WITH ${SCOPED}
     SELECT ds.step_id, ds.band_id, ds.answer_id, GROUPING(ds.band_id, ds.answer_id) AS whole_step, count(*) AS n,
-      percentile_cont(0.5) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM ds.answered_at - ds.started_at)) AS median
+      percentile_cont(0.5) WITHIN GROUP (ORDER BY date_part('epoch', ds.answered_at - ds.started_at)) AS median
     FROM diagnosis_steps ds
     WHERE ${STEP_SCOPE} AND NOT ds.superseded AND ds.step_id = ANY($5::text[])
       AND ds.diagnosis_id IN (SELECT id FROM d WHERE status IN ('finished', 'handed_off'))

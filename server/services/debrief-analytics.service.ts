@@ -135,10 +135,10 @@ export async function timesAnalytics(sql: Sql, scope: Scope): Promise<TimesAnaly
   const b = scopeBinds(scope);
   const [steps, [whole]] = await Promise.all([
     sql(`WITH ${STEPS_ON_PATH} SELECT step_id, count(*) AS n,
-      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM answered_at - started_at)) AS q
+      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY date_part('epoch', answered_at - started_at)) AS q
       FROM s GROUP BY step_id`, b),
     sql(`WITH ${SCOPED} SELECT count(*) AS n,
-      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY EXTRACT(EPOCH FROM ended_at - started_at)) AS q
+      percentile_cont(ARRAY[0.25, 0.5, 0.75]) WITHIN GROUP (ORDER BY date_part('epoch', ended_at - started_at)) AS q
       FROM d WHERE status IN ('finished', 'handed_off') AND ended_at IS NOT NULL`, b),
   ]);
   return { definition: QUANTILE_DEFINITION, steps: steps.map((r) => ({ stepId: String(r.step_id), ...quart(r) })), diagnosis: quart(whole ?? {}) };

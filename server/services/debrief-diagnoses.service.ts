@@ -49,10 +49,10 @@ function where(ctx: ShopContext, f: DiagnosisFilter, days: number): { clause: st
   return { clause: parts.join(' AND '), bind };
 }
 
-function baseSelect(clause: string): string {
-  return `SELECT d.id, d.status, d.ending_step_id, d.started_at, d.ended_at, d.technician_id, d.procedure_version_id,
-      v.procedure_id, v.number, p.title, veh.label, veh.model, u.name,
-      EXTRACT(EPOCH FROM COALESCE(d.ended_at, d.last_activity_at) - d.started_at) AS duration_seconds, ${FLAGS_SQL}
+function baseSelect(clause: string, withFlags = true): string {
+  return `SELECT d.id, d.shop_id, d.vehicle_id, d.last_activity_at, d.status, d.ending_step_id, d.started_at, d.ended_at, d.technician_id,
+      d.procedure_version_id, v.procedure_id, v.number, p.title, veh.label, veh.model, u.name,
+      date_part('epoch', COALESCE(d.ended_at, d.last_activity_at) - d.started_at) AS duration_seconds${withFlags ? `, ${FLAGS_SQL}` : ''}
     FROM diagnoses d
     JOIN procedure_versions v ON v.id = d.procedure_version_id
     JOIN procedures p ON p.id = v.procedure_id
@@ -90,7 +90,12 @@ async function selectRows(sql: Sql, ctx: ShopContext, q: DiagnosisFilter & { sor
   const flag = q.flag ? `WHERE ${FLAG_WHERE[q.flag]}` : '';
   const order = `${SORT_SQL[q.sort ?? 'startedAt']} ${q.dir === 'asc' ? 'ASC' : 'DESC'}, id`;
   const paging = tail.replace(/\$P(\d)/g, (_, k: string) => `$${bind.length + Number(k)}`);
-  const rows = await sql(`SELECT * FROM (${baseSelect(clause)}) x ${flag} ORDER BY ${order.replace(/^\w+\./, '')} ${paging}`, [...bind, ...extra]);
+  const orderBy = order.replace(/^\w+\./, '');
+  // Without a flag filter, sort and page first and work out the flags for the page's rows only.
+  const rows = flag
+    ? await sql(`SELECT * FROM (${baseSelect(clause)}) x ${flag} ORDER BY ${orderBy} ${paging}`, [...bind, ...extra])
+    : await sql(`SELECT d.*, ${FLAGS_SQL} FROM (${baseSelect(clause, false)} ORDER BY ${orderBy} ${paging}) d
+        ORDER BY ${orderBy}`, [...bind, ...extra]);
   return { rows, days, clause, bind, flag };
 }
 

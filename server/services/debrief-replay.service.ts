@@ -42,7 +42,7 @@ export async function replayDiagnosis(sql: Sql, ctx: ShopContext, id: string): P
   const [[extra], [version], steps, photos, notes] = await Promise.all([
     sql(`SELECT complaint, conditions, outcome FROM diagnoses WHERE id = $1 AND shop_id = $2`, [id, ctx.shopId]),
     sql(`SELECT document FROM procedure_versions WHERE id = $1 AND shop_id = $2`, [row.versionId, ctx.shopId]),
-    sql(`SELECT *, EXTRACT(EPOCH FROM answered_at - started_at) AS seconds FROM diagnosis_steps
+    sql(`SELECT *, date_part('epoch', answered_at - started_at) AS seconds FROM diagnosis_steps
          WHERE diagnosis_id = $1 AND shop_id = $2 ORDER BY seq`, [id, ctx.shopId]),
     sql(`SELECT id, step_id, content_type, created_at FROM attachments WHERE diagnosis_id = $1 AND shop_id = $2 ORDER BY created_at`, [id, ctx.shopId]),
     notesOf(sql, ctx.shopId, id),
