@@ -24,9 +24,10 @@ function pngBytes(): Buffer {
 /** Waits until the service worker controls the page and holds what an offline reload needs. */
 async function serviceWorkerReady(page: Page): Promise<void> {
   await page.evaluate(async () => { await navigator.serviceWorker.ready; });
-  await expect.poll(() => page.evaluate(() => !!navigator.serviceWorker.controller), { timeout: 20_000 }).toBe(true);
-  await page.goto('/bench'); // fetch "who am I" through the worker so it can answer it offline
+  // The worker takes control at the next navigation, which also fetches "who am I" through it.
+  await page.goto('/bench');
   await expect(page.getByRole('heading', { name: 'Bench' })).toBeVisible();
+  expect(await page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true);
   await expect.poll(() => page.evaluate(async () => !!(await (await caches.open('sw-session')).match('/api/auth/me'))), { timeout: 20_000 }).toBe(true);
 }
 
