@@ -162,3 +162,26 @@ describe('Debrief analytics against a direct computation on a small seeded histo
     expect(chain.proposedSeconds).toBeLessThanOrEqual(chain.currentSeconds + 1e-9);
   });
 });
+
+describe('the analytics are aggregated in the database', () => {
+  it('each analytics endpoint sends at most four statements and gets back figures, not rows (query-count budget)', async () => {
+    const seen: string[] = [];
+    const hook = (options: { type?: string }, query: { sql?: string }) => { seen.push(String(query.sql ?? options.type)); };
+    env.runtime.deps.sequelize.addHook('afterQuery', 'count-debrief', hook as never);
+    try {
+      for (const what of ['steps', 'findings', 'readings', 'times', 'advisor']) {
+        seen.length = 0;
+        const res = await trainer.get(url(what)).expect(200);
+        const mine = seen.filter((sql) => !/FROM "(memberships|users)"/.test(sql)); // sign-in context, not Debrief
+        expect(mine.length).toBeGreaterThan(1);
+        expect({ what, statements: mine.length <= 4 ? "within budget" : mine }).toEqual({ what, statements: "within budget" });
+        // No statement reads step rows out to Node: every one that touches diagnosis_steps aggregates.
+        for (const sql of mine.filter((x) => /diagnosis_steps/.test(x))) expect(sql).toMatch(/count\(|percentile_cont|json_agg/);
+        expect(JSON.stringify(res.body).length).toBeLessThan(60_000);
+      }
+    } finally {
+      env.runtime.deps.sequelize.removeHook('afterQuery', 'count-debrief');
+    }
+  });
+});
+
