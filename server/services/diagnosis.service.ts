@@ -85,9 +85,15 @@ export async function listDiagnoses(deps: AppDeps, ctx: ShopContext, q: { status
 }
 
 /** One diagnosis the caller may read (own, or any for leads/trainers/admins); otherwise a 404. */
-export async function findReadable(deps: AppDeps, ctx: ShopContext, id: string): Promise<SummaryRow & { conditions: Record<string, unknown>; outcome: Record<string, unknown> | null; meter_name: string | null; vehicle_frame: string; vehicle_hours: string | null }> {
-  const rows = await deps.sequelize.query<SummaryRow & { conditions: Record<string, unknown>; outcome: Record<string, unknown> | null; meter_name: string | null; vehicle_frame: string; vehicle_hours: string | null }>(
-    SUMMARY_SQL.replace('FROM diagnoses d', ', d.conditions, d.outcome, m.name AS meter_name, ve.frame_number AS vehicle_frame, ve.hours AS vehicle_hours FROM diagnoses d LEFT JOIN meters m ON m.id = d.meter_id')
+type RecordRow = SummaryRow & {
+  conditions: Record<string, unknown>; outcome: Record<string, unknown> | null; meter_name: string | null; meter_entries: unknown[] | null;
+  vehicle_frame: string; vehicle_hours: string | null;
+};
+
+export async function findReadable(deps: AppDeps, ctx: ShopContext, id: string): Promise<RecordRow> {
+  const rows = await deps.sequelize.query<RecordRow>(
+    SUMMARY_SQL.replace('FROM diagnoses d', `, d.conditions, d.outcome, m.name AS meter_name, m.spec->'entries' AS meter_entries, ve.frame_number AS vehicle_frame,
+      ve.hours AS vehicle_hours FROM diagnoses d LEFT JOIN meters m ON m.id = d.meter_id`)
       + ' AND d.id = :id',
     { replacements: { shopId: ctx.shopId, id }, type: QueryTypes.SELECT },
   );
@@ -117,7 +123,7 @@ export async function getRecord(deps: AppDeps, ctx: ShopContext, id: string) {
       { replacements: { id, shopId: ctx.shopId }, type: QueryTypes.SELECT }),
   ]);
   return {
-    ...toSummary(d), conditions: d.conditions, outcome: d.outcome, meterName: d.meter_name,
+    ...toSummary(d), conditions: d.conditions, outcome: d.outcome, meterName: d.meter_name, meterEntries: d.meter_entries ?? [],
     vehicleFrameNumber: d.vehicle_frame, vehicleHours: d.vehicle_hours === null ? null : Number(d.vehicle_hours),
     steps, attachments, coachingNotes: coaching,
   };

@@ -174,3 +174,24 @@ test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', 
   }).toBe(true);
   await adminContext.close();
 });
+
+test('a diagnosis started on one phone can be continued on another', async ({ page, browser }) => {
+  test.setTimeout(120_000);
+  await signIn(page, 'tech');
+  const id = await startNoSpark(page);
+  await page.getByRole('button', { name: 'Done' }).click();
+  await crank(page, 'No spark');
+  await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
+
+  const other = await browser.newContext({ viewport: { width: 360, height: 780 }, hasTouch: true });
+  const phone = await other.newPage();
+  await signIn(phone, 'tech');
+  await phone.getByRole('button', { name: 'Continue W-01 on this phone' }).first().click();
+  await expect(phone).toHaveURL(new RegExp(`/bench/d/${id}$`));
+  await expect(phone.getByRole('heading', { name: 'Isolate the stop circuit' })).toBeVisible();
+  await phone.getByRole('button', { name: 'Done' }).click();
+  await expect(phone.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
+  const rec = await (await phone.request.get(`/api/diagnoses/${id}`)).json() as { steps: { stepId: string }[] };
+  expect(rec.steps.map((s) => s.stepId)).toEqual(['prepare', 'sparkTest', 'isolateStop']);
+  await other.close();
+});

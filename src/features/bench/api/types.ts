@@ -10,9 +10,9 @@ export interface DiagnosisSummary {
   startedAt: string; endedAt: string | null; lastActivityAt: string; stepsAnswered: number;
 }
 export interface RecordStep {
-  id: string; seq: number; stepId: string; kind: string; entered: string | null; value: number | null; unit: string | null;
+  id: string; seq: number; stepId: string; kind: string; entered: string | null; startedAtShown?: string; value: number | null; unit: string | null;
   verdict: string | null; answerId: string | null; superseded: boolean; note: string; startedAt: string; answeredAt: string;
-  shown: { title?: string; limitsText?: string; cause?: string; repair?: string; answers?: { id: string; label: string }[] };
+  shown: { title?: string; limitsText?: string; cause?: string; repair?: string; answers?: { id: string; label: string }[]; leadEntered?: string; acknowledged?: boolean };
 }
 export interface DiagnosisRecord extends DiagnosisSummary {
   technicianName: string; versionNumber: number; endingStepId: string | null; meterName: string | null;
@@ -22,3 +22,4 @@ export interface DiagnosisRecord extends DiagnosisSummary {
   attachments: { id: string; stepId: string | null; originalName: string; hasThumb: boolean }[];
   coachingNotes: { id: string; stepId: string | null; body: string; authorName: string | null; createdAt: string }[];
 }
+export type RecordWithMeter = DiagnosisRecord & { versionId: string; meterEntries: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] };

@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { listLocalDiagnoses, type LocalDiagnosis } from '../../../lib/offline/db';
 import { PageHeader, Badge } from '../../../components/ui/card';
@@ -7,6 +7,7 @@ import { LinkButton } from '../../../components/ui/button';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
 import { SyncBadge } from './sync-badge';
+import { resumeFromServer } from '../lib/resume';
 
 const STATUS: Record<string, { label: string; tone: 'go' | 'signal' | 'edge' | 'neutral' }> = {
   active: { label: 'In progress', tone: 'signal' }, finished: { label: 'Finished', tone: 'go' },
@@ -21,6 +22,16 @@ export function BenchHome() {
   const localActive = local.filter((d) => d.status === 'active');
   const onPhone = new Set(local.map((d) => d.id));
   const history = (server.data ?? []).filter((d) => !(d.status === 'active' && onPhone.has(d.id)));
+  const navigate = useNavigate();
+  const [problem, setProblem] = useState<string | null>(null);
+  const resume = async (id: string) => {
+    try {
+      await resumeFromServer(id);
+      navigate(`/bench/d/${id}`);
+    } catch {
+      setProblem('This diagnosis could not be brought onto this phone. Try again with signal.');
+    }
+  };
   return (
     <div className="mx-auto max-w-xl space-y-5 pb-16">
       <PageHeader title="Bench" actions={<SyncBadge />} />
@@ -39,12 +50,18 @@ export function BenchHome() {
         <h2 id="history" className="text-xl font-bold">My diagnoses</h2>
         {server.isError && <p className="text-ink-soft">History needs a connection; it will show when the signal is back.</p>}
         <ul className="space-y-2">
+          {problem && <li role="alert" className="text-stop">{problem}</li>}
           {history.map((d) => (
-            <li key={d.id}>
+            <li key={d.id} className="space-y-1">
               <Link to={`/bench/d/${d.id}/record`} className="flex min-h-14 items-center justify-between gap-2 rounded-lg border border-line bg-panel p-3">
                 <span><strong>{d.vehicleLabel}</strong> · {d.procedureTitle}<span className="block text-ink-soft">{new Date(d.startedAt).toLocaleDateString()} · {d.stepsAnswered} steps</span></span>
                 <Badge tone={STATUS[d.status]?.tone ?? 'neutral'}>{STATUS[d.status]?.label ?? d.status}</Badge>
               </Link>
+              {d.status === 'active' && (
+                <button type="button" onClick={() => void resume(d.id)} className="min-h-12 w-full rounded-lg border-2 border-signal bg-panel px-3 text-lg font-semibold">
+                  Continue {d.vehicleLabel} on this phone
+                </button>
+              )}
             </li>
           ))}
         </ul>
