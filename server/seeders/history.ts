@@ -2,11 +2,13 @@ import { createHash, randomUUID } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { procedureDocumentSchema } from '@shared/schema/procedure';
 import { formatReading } from '@shared/measure/format';
+import { meterUncertainty } from '@shared/measure/verdict';
 import { QUANTITY_INFO, type Quantity } from '@shared/measure/quantities';
 import type { AppDeps } from '../deps';
 import { hashPassword } from '../lib/passwords';
 import { planWalks, rng, pick, walkTowardsFault, type Walk, type WalkPlan } from './history-walk';
 import { insertRows } from './history-insert';
+import { shownOf } from '../services/diagnosis-decide';
 
 // Invented demo history over the published procedures of a shop: every name, reading and time
 // here is made up for the demo. Bulk inserts (unnest batches) make 100 000 diagnoses take minutes.
@@ -25,7 +27,7 @@ export interface HistoryOptions {
 
 export interface HistoryResult { diagnoses: number; steps: number; vehicles: number; technicians: number }
 
-interface Version { id: string; plan: WalkPlan; quantities: Map<string, Quantity> }
+interface Version { id: string; plan: WalkPlan; quantities: Map<string, Quantity>; shown: Map<string, Record<string, unknown>> }
 interface Tech { id: string; speed: number; bias: number }
 
 const APPRENTICES = [
@@ -47,7 +49,12 @@ async function loadVersions(deps: Pick<AppDeps, 'sequelize'>, shopId: string): P
   return rows.map((r) => {
     const doc = procedureDocumentSchema.parse(r.document);
     const quantities = new Map(doc.steps.flatMap((s) => (s.kind === 'reading' || s.kind === 'formula' ? [[s.id, s.quantity] as const] : [])));
-    return { id: r.id, plan: planWalks(doc), quantities };
+    // What Bench stores as shown, less the long instructions and safety text (the version has them).
+    const shown = new Map(doc.steps.map((st) => {
+      const { instructions: _i, safety: _s, ...rest } = shownOf(st);
+      return [st.id, rest] as const;
+    }));
+    return { id: r.id, plan: planWalks(doc), quantities, shown };
   });
 }
 
@@ -117,7 +124,7 @@ function build(walk: Walk, version: Version, tech: Tech, vehicleId: string, at: 
     const q = version.quantities.get(s.stepId);
     const entered = s.value === null ? null : q ? formatReading({ value: s.value, quantity: q }) : String(s.value);
     const hash = createHash('sha256').update(`${id}|${s.stepId}|${entered}|${s.bandId}|${s.answerId}`).digest('hex');
-    steps.push([randomUUID(), id, i + 1, s.stepId, s.kind, JSON.stringify({ title: s.title }), entered, s.value, q ? QUANTITY_INFO[q].base : null, s.verdict,
+    steps.push([randomUUID(), id, i + 1, s.stepId, s.kind, JSON.stringify(shownFor(version, s)), entered, s.value, q ? QUANTITY_INFO[q].base : null, s.verdict,
       s.bandId, s.answerId, s.nextStepId, s.superseded, new Date(started).toISOString(), new Date(t).toISOString(), hash]);
     t += (5 + rand() * 25) * 1000;
   });
@@ -127,7 +134,7 @@ function build(walk: Walk, version: Version, tech: Tech, vehicleId: string, at: 
     const started = t;
     t += (30 + rand() * 90) * 1000;
     const hash = createHash('sha256').update(`${id}|${end.id}|end`).digest('hex');
-    steps.push([randomUUID(), id, steps.length + 1, end.id, end.kind, JSON.stringify({ title: end.title }), null, null, null, null,
+    steps.push([randomUUID(), id, steps.length + 1, end.id, end.kind, JSON.stringify(version.shown.get(end.id)), null, null, null, null,
       null, null, null, false, new Date(started).toISOString(), new Date(t).toISOString(), hash]);
   }
   const recent = now - at < 36 * 3_600_000;
@@ -140,6 +147,15 @@ function build(walk: Walk, version: Version, tech: Tech, vehicleId: string, at: 
       new Date(at).toISOString(), ended, new Date(t).toISOString()],
     s: steps,
   };
+}
+
+/** The stored screen of a step, with the meter's uncertainty interval around a reading. */
+function shownFor(version: Version, s: Walk['steps'][number]): Record<string, unknown> {
+  const base = version.shown.get(s.stepId) ?? { title: s.title };
+  const step = version.plan.byId.get(s.stepId);
+  if (s.value === null || step?.kind !== 'reading' || !step.meter) return base;
+  const U = meterUncertainty(s.value, step.meter).expanded;
+  return { ...base, interval: { low: s.value - U, high: s.value + U } };
 }
 
 /**

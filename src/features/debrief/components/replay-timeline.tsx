@@ -2,7 +2,7 @@ import { Badge } from '../../../components/ui/card';
 import { cx } from '../../../components/ui/cx';
 import type { ProcedureDocument } from '@shared/schema';
 import type { CoachingNote, Replay, ReplayStep } from '../api/types';
-import { dateTime, formatDuration } from '../lib/format';
+import { dateTime, formatDuration, formatValue } from '../lib/format';
 
 const VERDICT: Record<string, { label: string; tone: 'go' | 'stop' | 'edge' }> = {
   within: { label: 'Within limits', tone: 'go' },
@@ -23,8 +23,16 @@ function answerLabel(doc: ProcedureDocument, s: ReplayStep): string | null {
 }
 
 function limitsText(shown: Record<string, unknown>): string | null {
-  const t = shown.limitsText ?? shown.limits;
-  return typeof t === 'string' ? t : null;
+  return typeof shown.limitsText === 'string' ? shown.limitsText : null;
+}
+
+/** "value ± U" as the interval the verdict used (meter uncertainty), when the step recorded one. */
+function intervalText(s: ReplayStep): string | null {
+  const i = s.shown.interval as { low?: number; high?: number } | null | undefined;
+  if (!i || typeof i.low !== 'number' || typeof i.high !== 'number') return null;
+  const q = typeof s.shown.quantity === 'string' ? s.shown.quantity : null;
+  const unit = typeof s.shown.unit === 'string' ? s.shown.unit : null;
+  return `${formatValue(i.low, q, unit)} to ${formatValue(i.high, q, unit)}`;
 }
 
 /** The steps in the order they were answered, superseded answers struck through, with notes. */
@@ -49,7 +57,10 @@ export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay;
               {answer && <span className="text-ink-soft">→ {answer}</span>}
               {s.superseded && <Badge tone="neutral">Taken back, answered again</Badge>}
               {limitsText(s.shown) && <span className="text-ink-soft">Limits shown: {limitsText(s.shown)}</span>}
+              {intervalText(s) && <span className="text-ink-soft">Interval with the meter's uncertainty: {intervalText(s)}</span>}
+              {typeof s.shown.leadEntered === 'string' && <span className="text-ink-soft">Test leads nulled at {s.shown.leadEntered}</span>}
             </div>
+            {typeof s.shown.question === 'string' && <p className="mt-1 text-sm text-ink-soft">Asked: {s.shown.question}</p>}
             {s.note && <p className="mt-1 text-sm">Technician's note: {s.note}</p>}
             {photos.length > 0 && (
               <div className="mt-2 flex flex-wrap gap-2">
