@@ -12,7 +12,7 @@ import { replayDiagnosis } from '../services/debrief-replay.service';
 import { addCoachingNote } from '../services/coaching.service';
 import { findingsAnalytics, readingsAnalytics, stepsAnalytics, timesAnalytics } from '../services/debrief-analytics.service';
 import { adviseVersion, draftFromAdvice } from '../services/debrief-advisor.service';
-import { debriefProcedures } from '../services/debrief-procedures.service';
+import { debriefProcedures, debriefTechnicians } from '../services/debrief-procedures.service';
 
 /** Debrief: trainers and leads read the shop's diagnoses and analytics; technicians their own diagnoses. */
 export function debriefRoutes(deps: AppDeps): Router {
@@ -22,6 +22,7 @@ export function debriefRoutes(deps: AppDeps): Router {
   const analysts = requireRole('trainer', 'lead');
 
   r.get('/procedures', analysts, async (req, res) => { res.json(await debriefProcedures(sql, ctxOf(req))); });
+  r.get('/technicians', analysts, async (req, res) => { res.json(await debriefTechnicians(sql, ctxOf(req))); });
   r.get('/diagnoses', readers, async (req, res) => {
     res.json(await listDiagnoses(sql, ctxOf(req), parseInput(diagnosisListQuerySchema, req.query, 'The filter')));
   });

@@ -33,3 +33,11 @@ export async function debriefProcedures(sql: Sql, ctx: ShopContext): Promise<Deb
   }
   return [...out.values()];
 }
+
+/** Technicians of the shop, for the table's technician filter. */
+export async function debriefTechnicians(sql: Sql, ctx: ShopContext): Promise<{ id: string; name: string }[]> {
+  requireAnalyticsReader(ctx);
+  const rows = await sql(`SELECT u.id, u.name FROM memberships m JOIN users u ON u.id = m.user_id
+    WHERE m.shop_id = $1 AND 'technician' = ANY(m.roles) ORDER BY u.name`, [ctx.shopId]);
+  return rows.map((r) => ({ id: String(r.id), name: String(r.name) }));
+}

@@ -53,6 +53,15 @@ describe('the diagnoses table', () => {
     expect(back.body.rows.every((r: { flags: { takenBack: boolean } }) => r.flags.takenBack)).toBe(true);
   });
 
+  it('filters by technician, and lists the shop technicians for the filter', async () => {
+    const list = await trainer.get('/api/debrief/technicians').expect(200);
+    expect(list.body).toEqual(expect.arrayContaining([{ id: techId, name: 'Casey Tech' }]));
+    const res = await trainer.get(`/api/debrief/diagnoses?technicianId=${techId}&pageSize=200`).expect(200);
+    const [{ n }] = await q(`SELECT count(*)::int AS n FROM diagnoses WHERE technician_id = $1`, [techId]);
+    expect(res.body.total).toBe(n);
+    await tech.get('/api/debrief/technicians').expect(403);
+  });
+
   it('exports the filtered set as CSV with a header and one line per diagnosis', async () => {
     const res = await trainer.get('/api/debrief/diagnoses.csv?status=abandoned').expect(200);
     expect(res.headers['content-type']).toMatch(/text\/csv/);

@@ -9,6 +9,7 @@ import type { DebriefProcedure, Replay } from './types';
 export const debriefKeys = {
   all: ['debrief'] as const,
   procedures: () => [...debriefKeys.all, 'procedures'] as const,
+  technicians: () => [...debriefKeys.all, 'technicians'] as const,
   diagnoses: (q: Partial<DiagnosisListQuery>) => [...debriefKeys.all, 'diagnoses', q] as const,
   diagnosis: (id: string) => [...debriefKeys.all, 'diagnosis', id] as const,
   analytics: (what: string, q: AnalyticsQuery) => [...debriefKeys.all, 'analytics', what, q] as const,
@@ -19,6 +20,11 @@ export const debriefQueries = {
     queryKey: debriefKeys.procedures(),
     queryFn: () => api.get<DebriefProcedure[]>('/api/debrief/procedures'),
     staleTime: 60_000,
+  }),
+  technicians: () => queryOptions({
+    queryKey: debriefKeys.technicians(),
+    queryFn: () => api.get<{ id: string; name: string }[]>('/api/debrief/technicians'),
+    staleTime: 5 * 60_000,
   }),
   diagnoses: (q: Partial<DiagnosisListQuery>) => queryOptions({
     queryKey: debriefKeys.diagnoses(q),

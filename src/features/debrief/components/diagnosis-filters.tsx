@@ -9,9 +9,10 @@ type Patch = Partial<Record<string, string | number | undefined>>;
 /** Filters of the diagnoses table; each change goes to the server (filtering never happens on the page). */
 export function DiagnosisFilters({ q, onChange }: { q: Partial<DiagnosisListQuery>; onChange: (p: Patch) => void }) {
   const procedures = useQuery(debriefQueries.procedures());
+  const technicians = useQuery(debriefQueries.technicians());
   const chosen = procedures.data?.find((p) => p.id === q.procedureId);
   return (
-    <div className="grid grid-cols-2 gap-3 md:grid-cols-4 xl:grid-cols-8" role="search" aria-label="Filter diagnoses">
+    <div className="grid grid-cols-2 gap-3 md:grid-cols-4 xl:grid-cols-9" role="search" aria-label="Filter diagnoses">
       <Field label="Procedure" className="col-span-2">
         <Select value={q.procedureId ?? ''} onChange={(e) => onChange({ procedureId: e.target.value, versionId: undefined, endingStepId: undefined })}>
           <option value="">All procedures</option>
@@ -22,6 +23,12 @@ export function DiagnosisFilters({ q, onChange }: { q: Partial<DiagnosisListQuer
         <Select value={q.versionId ?? ''} disabled={!chosen} onChange={(e) => onChange({ versionId: e.target.value })}>
           <option value="">All versions</option>
           {chosen?.versions.map((v) => <option key={v.id} value={v.id}>v{v.number}</option>)}
+        </Select>
+      </Field>
+      <Field label="Technician">
+        <Select value={q.technicianId ?? ''} onChange={(e) => onChange({ technicianId: e.target.value })}>
+          <option value="">Everyone</option>
+          {technicians.data?.map((t) => <option key={t.id} value={t.id}>{t.name}</option>)}
         </Select>
       </Field>
       <Field label="Status">
