@@ -138,7 +138,7 @@ async function serve(): Promise<void> {
 }
 
 async function main(): Promise<void> {
-  const child = fork(fileURLToPath(import.meta.url), [], { env: { ...process.env, PERF_ROLE: 'server' }, execArgv: ['--import', 'tsx'] });
+  const child = fork(fileURLToPath(import.meta.url), [], { env: { ...process.env, PERF_ROLE: 'server' }, execArgv: ['--import', 'tsx', ...(process.env.PERF_PROFILE ? ['--cpu-prof', '--cpu-prof-dir=.tmp/prof'] : [])] });
   const env = await new Promise<{ base: string; diagnoses: string[] }>((resolve, reject) => {
     child.once('message', (m) => resolve(m as { base: string; diagnoses: string[] }));
     child.once('exit', (code) => reject(new Error(`the server process stopped (${code})`)));
