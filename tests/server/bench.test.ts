@@ -182,6 +182,28 @@ describe('stepping through the pinned version', () => {
   });
 });
 
+describe('the demo "No spark" procedure on the server', () => {
+  it('nulls the test leads and corrects the copper coil primary to 20 °C with the engine temperature', async () => {
+    const v = (await tech.get('/api/bench/procedures/no-spark').expect(200)).body as { id: string };
+    const body = { ...startBody(world), procedureVersionId: v.id };
+    await tech.post('/api/diagnoses', body).expect(201);
+    const id = body.id;
+    const a = await step(id, 'prepare', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none', acknowledged: true });
+    const c = await step(id, 'isolateStop', b.id);
+    const d = await step(id, 'sparkRetest', c.id, { answerId: 'no', acknowledged: true });
+    const e = await step(id, 'capOhms', d.id, { entered: '4K7' });
+    expect(e.value).toBe(4700); // IEC 60062: the letter K stands for the decimal point and ×10³
+    const f = await step(id, 'groundCheck', e.id, { entered: '0,4', leadEntered: '0.1' });
+    expect(f.value).toBeCloseTo(0.3, 12);
+    const g = await step(id, 'engineTemp', f.id, { entered: '30' });
+    const h = await step(id, 'coilPrimary', g.id, { entered: '0.6', leadEntered: '0.1' });
+    // IEC 60028 (annealed copper, α20 = 0.00393 /°C): R20 = Rt / (1 + α20·(t − 20)) = 0.5 / 1.0393
+    expect(h.value).toBeCloseTo(0.5 / (1 + 0.00393 * (30 - 20)), 9);
+    expect(h).toMatchObject({ verdict: 'within', next: 'coilSecondary' });
+  });
+});
+
 describe('hand-off, abandon and coaching notes', () => {
   it('a hand-off ends the diagnosis and e-mails the shop leads', async () => {
     const id = await start();
