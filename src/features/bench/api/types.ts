@@ -12,7 +12,8 @@ export interface DiagnosisSummary {
 export interface RecordStep {
   id: string; seq: number; stepId: string; kind: string; entered: string | null; startedAtShown?: string; value: number | null; unit: string | null;
   verdict: string | null; answerId: string | null; superseded: boolean; note: string; startedAt: string; answeredAt: string;
-  shown: { title?: string; limitsText?: string; cause?: string; repair?: string; answers?: { id: string; label: string }[]; leadEntered?: string; acknowledged?: boolean };
+  shown: { title?: string; limitsText?: string; cause?: string; repair?: string; answers?: { id: string; label: string }[]; leadEntered?: string; acknowledged?: boolean;
+    quantity?: string; unit?: string; corrections?: { leadNull?: number; temperatureFactor?: number } };
 }
 export interface DiagnosisRecord extends DiagnosisSummary {
   technicianName: string; versionNumber: number; endingStepId: string | null; meterName: string | null;

@@ -1,6 +1,8 @@
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
+import { formatReading } from '@shared/measure/format';
+import type { Quantity } from '@shared/measure/quantities';
 import { api, ApiError } from '../../../lib/api-client';
 import { PageHeader, Alert, Spinner, Badge } from '../../../components/ui/card';
 import { Button } from '../../../components/ui/button';
@@ -14,10 +16,23 @@ const VERDICT: Record<string, [string, 'go' | 'stop' | 'edge']> = {
   'borderline-low': ['borderline', 'edge'], 'borderline-high': ['borderline', 'edge'],
 };
 
+function parsed(s: RecordStep): string {
+  if (s.value === null || !s.shown.quantity) return '';
+  return formatReading({ value: s.value, quantity: s.shown.quantity as Quantity, significantDigits: 3 }, s.shown.unit ? { unit: s.shown.unit } : {});
+}
+
+function corrections(s: RecordStep): string {
+  const c = s.shown.corrections ?? {};
+  const out: string[] = [];
+  if (s.shown.leadEntered) out.push(`test leads ${s.shown.leadEntered} subtracted`);
+  if (c.temperatureFactor !== undefined) out.push(`corrected to 20 °C (×${c.temperatureFactor.toFixed(4)})`);
+  return out.join('; ');
+}
+
 function answer(s: RecordStep): string {
-  if (s.entered) return s.entered;
+  if (s.entered) return `${s.entered} → ${parsed(s)}`;
   if (s.answerId) return s.shown.answers?.find((a) => a.id === s.answerId)?.label ?? s.answerId;
-  if (s.kind === 'formula' && s.value !== null) return `computed ${Number(s.value.toPrecision(4))} ${s.unit ?? ''}`;
+  if (s.kind === 'formula') return `computed ${parsed(s)}`;
   return s.kind === 'task' ? 'done' : '';
 }
 
@@ -48,6 +63,7 @@ export function RecordPage() {
               <span className="ml-auto text-sm text-ink-soft">{new Date(s.answeredAt).toLocaleTimeString()}</span>
             </div>
             <p className="text-lg">{answer(s)}{s.shown.limitsText ? <span className="text-ink-soft"> · limits {s.shown.limitsText}</span> : null}</p>
+            {corrections(s) && <p className="text-ink-soft">{corrections(s)}</p>}
             {s.shown.cause && <p><strong>Cause:</strong> {s.shown.cause} <strong>Repair:</strong> {s.shown.repair}</p>}
             {s.note && <p className="text-ink-soft">Note: {s.note}</p>}
             {r.attachments.filter((a) => a.stepId === s.stepId && !s.superseded).map((a) => <img key={a.id} src={`/api/attachments/${a.id}/thumb`} alt={`Photo ${a.originalName}`} className="mt-2 inline-block h-24 w-24 rounded border border-line object-cover" />)}
