@@ -90,7 +90,7 @@ export function DiagnosisScreen() {
               <summary className="flex min-h-12 cursor-pointer items-center gap-2 px-3 text-lg font-bold"><span aria-hidden className="text-2xl leading-none text-signal">+</span>Add a note or photo{photosHere.length ? ` (${photosHere.length} photo${photosHere.length > 1 ? 's' : ''})` : ''}</summary>
               <div className="space-y-3 p-3 pt-0">
                 <label className="block text-lg font-bold">Note
-                  <textarea className="mt-1 w-full rounded-lg border-2 border-ink/40 bg-panel p-2 text-lg" rows={2} value={note} onChange={(e) => setNote(e.target.value)} />
+                  <textarea className="mt-1 w-full rounded-lg border-2 border-ink/40 bg-panel p-2 text-lg font-normal" rows={2} value={note} onChange={(e) => setNote(e.target.value)} />
                 </label>
                 <PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, currentView.id)} />
               </div>

@@ -2,7 +2,7 @@ import { useState, type ReactNode } from 'react';
 import type { StepView } from '@shared/engine/step-view';
 import { SafetyBlock } from './step-card';
 
-const input = 'w-full rounded-lg border-2 border-ink/70 bg-panel px-3 min-h-12 text-lg';
+const input = 'mt-1 w-full rounded-lg border-2 border-ink/70 bg-panel px-3 min-h-12 text-lg font-normal';
 const check = 'flex min-h-14 items-center gap-3 rounded-lg border-2 border-ink/30 bg-panel px-3 text-lg font-semibold';
 
 /** A Finding: what was done, the final check and the labour; a Hand-off: the reason. */
