@@ -12,7 +12,7 @@ export function DiagnosisFilters({ q, onChange }: { q: Partial<DiagnosisListQuer
   const technicians = useQuery(debriefQueries.technicians());
   const chosen = procedures.data?.find((p) => p.id === q.procedureId);
   return (
-    <div className="grid grid-cols-2 gap-3 md:grid-cols-4 xl:grid-cols-9" role="search" aria-label="Filter diagnoses">
+    <div className="grid grid-cols-2 gap-3 md:grid-cols-4 xl:grid-cols-6" role="search" aria-label="Filter diagnoses">
       <Field label="Procedure" className="col-span-2">
         <Select value={q.procedureId ?? ''} onChange={(e) => onChange({ procedureId: e.target.value, versionId: undefined, endingStepId: undefined })}>
           <option value="">All procedures</option>
