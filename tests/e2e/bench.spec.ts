@@ -195,3 +195,16 @@ test('a diagnosis started on one phone can be continued on another', async ({ pa
   expect(rec.steps.map((s) => s.stepId)).toEqual(['prepare', 'sparkTest', 'isolateStop']);
   await other.close();
 });
+
+test('a printed job card carries a plain link that opens the start with machine and procedure picked', async ({ page }) => {
+  await signIn(page, 'tech');
+  const vehicles = await (await page.request.get('/api/vehicles')).json() as { id: string; label: string }[];
+  const w02 = vehicles.find((v) => v.label === 'W-02')!;
+  await page.goto(`/bench/job-card?vehicle=${w02.id}&procedure=no-spark`);
+  const link = page.getByTestId('job-link');
+  await expect(link).toContainText(`/bench/start?vehicle=${w02.id}&procedure=no-spark`);
+  await shot(page, 'bench-job-card');
+  await page.goto((await link.textContent())!.trim());
+  await expect(page.getByRole('radio', { name: /^No spark/ })).toBeChecked();
+  await expect(page.getByLabel('Machine', { exact: true })).toHaveValue(w02.id);
+});
