@@ -39,10 +39,9 @@ export function PathPanel({ q, doc }: { q: AnalyticsQuery; doc: ProcedureDocumen
         </Card>
       )}
       <Suspense fallback={<Spinner label="Drawing the procedure" />}>
-        <ProcedureGraph doc={doc} graph={graph} label="Procedure graph: the darker a step or branch, the more diagnoses took it"
-          focus={graph.nodes.filter((n) => n.data.level >= 2).map((n) => n.id)} />
+        <ProcedureGraph doc={doc} graph={graph} label="Procedure graph: the darker a step or branch, the more diagnoses took it" />
       </Suspense>
-      <p className="text-sm text-ink-soft">Darker steps were reached by more of the {data.diagnoses.toLocaleString()} diagnoses; each branch shows the share of answers that took it. The view opens on the steps that at least one in ten reached; zoom out or drag to see the rest.</p>
+      <p className="text-sm text-ink-soft">Darker steps were reached by more of the {data.diagnoses.toLocaleString()} diagnoses; each branch shows the share of answers that took it. Drag the graph to follow the procedure down; the table below holds the same figures.</p>
       <FigureTableView caption="Reached and ended per step" table={{
         header: ['Step', 'Reached', 'Finished here', 'Handed off here', 'Abandoned here'],
         rows: rows.map((f) => [title(f.stepId), f.reached, f.finished, f.handedOff, f.abandoned]),

@@ -1,4 +1,4 @@
-import { useMemo } from 'react';
+import { useMemo, useRef } from 'react';
 import { ReactFlow, Background, Controls, Handle, Position, type Edge, type Node, type NodeProps } from '@xyflow/react';
 import '@xyflow/react/dist/style.css';
 import type { ProcedureDocument } from '@shared/schema';
@@ -35,10 +35,19 @@ export default function ProcedureGraph({ doc, graph, label, onSelect, focus }: {
   graph: { nodes: { id: string; data: GraphNodeData }[]; edges: GraphEdge[] };
   label: string;
   onSelect?: (stepId: string) => void;
-  /** Steps to fit in view at first (the path of a diagnosis); all steps when left out. */
+  /** Steps to fit in view at first (the path of a diagnosis); without it the view fits the width, from the top. */
   focus?: string[];
 }) {
   const pos = useMemo(() => positions(doc), [doc]);
+  const box = useRef<HTMLDivElement>(null);
+  // A tall procedure fitted whole becomes unreadable; fit its width instead and start at the top.
+  const topView = useMemo(() => {
+    const xs = [...pos.values()].map((p) => p.x);
+    const minX = Math.min(...xs);
+    const minY = Math.min(...[...pos.values()].map((p) => p.y));
+    const width = Math.max(...xs) - minX + 240;
+    return { minX, minY, width };
+  }, [pos]);
   const nodes: Node<GraphNodeData>[] = graph.nodes.map((n) => ({ ...n, type: 'step', position: pos.get(n.id) ?? { x: 0, y: 0 }, draggable: false, connectable: false }));
   const p = palette();
   const ramp = heatRamp(p);
@@ -48,8 +57,14 @@ export default function ProcedureGraph({ doc, graph, label, onSelect, focus }: {
     labelStyle: { fontSize: 12, fill: p.ink }, labelBgStyle: { fill: p.paper },
   }));
   return (
-    <div className="h-[46rem] rounded-[var(--radius-card)] border border-line bg-paper" role="figure" aria-label={label}>
-      <ReactFlow nodes={nodes} edges={edges} nodeTypes={nodeTypes} fitView fitViewOptions={{ padding: 0.08, ...(focus?.length ? { nodes: focus.map((id) => ({ id })), maxZoom: 1 } : {}) }} minZoom={0.2} nodesDraggable={false} nodesConnectable={false}
+    <div ref={box} className="h-[46rem] rounded-[var(--radius-card)] border border-line bg-paper" role="figure" aria-label={label}>
+      <ReactFlow nodes={nodes} edges={edges} nodeTypes={nodeTypes} minZoom={0.2}
+        fitView={Boolean(focus?.length)} fitViewOptions={{ padding: 0.08, nodes: (focus ?? []).map((id) => ({ id })), maxZoom: 1 }}
+        onInit={focus?.length ? undefined : (rf) => {
+          const w = box.current?.clientWidth ?? 1000;
+          const zoom = Math.min(1, (w - 32) / topView.width);
+          void rf.setViewport({ x: (w - topView.width * zoom) / 2 - (topView.minX - 10) * zoom, y: 16 - topView.minY * zoom, zoom });
+        }} nodesDraggable={false} nodesConnectable={false}
         elementsSelectable={Boolean(onSelect)} onNodeClick={onSelect ? (_e, n) => onSelect(n.id) : undefined}>
         <Background gap={24} color={p.line} />
         <Controls showInteractive={false} />
