@@ -107,6 +107,12 @@ export function valueInBand(band: Pick<Band, 'lower' | 'upper'>, limits: { min?:
   else if (hi !== undefined) v = hi - Math.abs(normal(rand)) * span * 0.35;
   else v = normal(rand) * span;
   if (hi !== undefined && hi > 0 && lo === undefined && v < 0) v = hi * rand();
+  // Now and then a reading sits just inside a band end (a limit), where borderline verdicts live.
+  const ends = [lo, hi].filter((e): e is number => e !== undefined);
+  if (ends.length && rand() < 0.15) {
+    const edge = pick(rand, ends);
+    v = edge + (edge === lo ? 1 : -1) * Math.abs(span) * 0.02 * rand();
+  }
   if (bandContains({ id: 'b', lower: band.lower, upper: band.upper }, v)) return v;
   if (lo !== undefined && hi !== undefined) return (lo + hi) / 2;
   return lo !== undefined ? lo + span * 0.1 : (hi ?? 0) - span * 0.1;
