@@ -1,5 +1,4 @@
 import { createHash } from 'node:crypto';
-import { QueryTypes, UniqueConstraintError } from 'sequelize';
 import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
@@ -38,34 +37,50 @@ const HEAD_SQL = `
         'lead', s.shown->>'leadEntered', 'answerId', s.answer_id, 'acknowledged', coalesce((s.shown->>'acknowledged')::boolean, false)) ORDER BY s.seq), '[]')
        FROM diagnosis_steps s WHERE s.diagnosis_id = d.id AND NOT s.superseded) AS path,
     (SELECT row_to_json(x) FROM (SELECT diagnosis_id, payload_hash, seq, step_id, value, verdict, band_id, answer_id, next_step_id
-       FROM diagnosis_steps WHERE id = :rowId) x) AS existing
+       FROM diagnosis_steps WHERE id = $3::uuid) x) AS existing
   FROM diagnoses d LEFT JOIN meters m ON m.id = d.meter_id
-  WHERE d.id = :diagnosisId AND d.shop_id = :shopId`;
+  WHERE d.id = $1::uuid AND d.shop_id = $2::uuid`;
 
 // Supersedes the abandoned tail of the path, stores the step once and touches the diagnosis, in
 // one statement (so one transaction); nothing is written once the diagnosis has ended.
 const WRITE_SQL = `
   WITH live AS (
-    SELECT 1 FROM diagnoses WHERE id = :diagnosisId AND status = 'active'
+    SELECT 1 FROM diagnoses WHERE id = $3::uuid AND status = 'active'
   ), sup AS (
     UPDATE diagnosis_steps SET superseded = true
-     WHERE diagnosis_id = :diagnosisId AND :fromSeq::int IS NOT NULL AND seq >= :fromSeq::int AND NOT superseded
+     WHERE diagnosis_id = $3::uuid AND $19::int IS NOT NULL AND seq >= $19::int AND NOT superseded
        AND EXISTS (SELECT 1 FROM live)
   ), ins AS (
     INSERT INTO diagnosis_steps (id, shop_id, diagnosis_id, seq, step_id, kind, shown, entered, value, unit, verdict,
                                  band_id, answer_id, note, started_at, answered_at, payload_hash, next_step_id)
-    SELECT :id, :shopId, :diagnosisId, :seq, :stepId, :kind, :shown::jsonb, :entered, :value, :unit, :verdict,
-           :bandId, :answerId, :note, :startedAt::timestamptz, :answeredAt::timestamptz, :hash, :next
+    SELECT $1::uuid, $2::uuid, $3::uuid, $4::int, $5::text, $6::text, $7::jsonb, $8::text, $9::float8, $10::text, $11::text,
+           $12::text, $13::text, $14::text, $15::timestamptz, $16::timestamptz, $17::text, $18::text
      WHERE EXISTS (SELECT 1 FROM live)
     ON CONFLICT (id) DO NOTHING
     RETURNING id
   ), touched AS (
     UPDATE diagnoses SET last_activity_at = now(), updated_at = now(),
-           status = coalesce(:endStatus, status), ending_step_id = coalesce(:endingStepId, ending_step_id),
-           outcome = coalesce(:outcome::jsonb, outcome), ended_at = CASE WHEN :endStatus::text IS NULL THEN ended_at ELSE :answeredAt::timestamptz END
-     WHERE id = :diagnosisId AND EXISTS (SELECT 1 FROM ins)
+           status = coalesce($20::text, status), ending_step_id = coalesce($21::text, ending_step_id),
+           outcome = coalesce($22::jsonb, outcome), ended_at = CASE WHEN $20::text IS NULL THEN ended_at ELSE $16::timestamptz END
+     WHERE id = $3::uuid AND EXISTS (SELECT 1 FROM ins)
   )
   SELECT count(*)::int AS inserted FROM ins`;
+
+interface PgClient { query<R>(q: { name: string; text: string; values: unknown[] }): Promise<{ rows: R[] }> }
+
+/**
+ * Runs named prepared statements on a connection of Sequelize's pool: PostgreSQL plans each
+ * statement once per connection instead of once per step (the step endpoint is the hot path).
+ */
+async function onPooledClient<T>(deps: AppDeps, fn: (client: PgClient) => Promise<T>): Promise<T> {
+  const manager = deps.sequelize.connectionManager;
+  const client = (await manager.getConnection({ type: 'write' })) as unknown as PgClient;
+  try {
+    return await fn(client);
+  } finally {
+    manager.releaseConnection(client as never);
+  }
+}
 
 function fromExisting(e: NonNullable<Head['existing']>, id: string, status: string): StepResult {
   return { id, seq: e.seq, stepId: e.step_id, value: e.value, verdict: e.verdict, bandId: e.band_id, answerId: e.answer_id, next: e.next_step_id, status, duplicate: true };
@@ -103,15 +118,14 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
   const decided = decideStep(withMeter(version.document, head.meter ?? []), version.steps, keep, input);
   const { endStatus, outcome } = outcomeFor(step.kind, input);
   const seq = Number(head.max_seq) + 1;
-  const [written] = await deps.sequelize.query<{ inserted: number }>(WRITE_SQL, {
-    type: QueryTypes.SELECT,
-    replacements: {
-      id: input.id, shopId: ctx.shopId, diagnosisId, seq, stepId: step.id, kind: step.kind, shown: JSON.stringify(decided.shown),
-      entered: decided.entered, value: decided.value, unit: decided.unit, verdict: decided.verdict, bandId: decided.bandId,
-      answerId: decided.answerId, note: input.note, startedAt: input.startedAt, answeredAt: input.answeredAt, hash, next: decided.next,
-      fromSeq: keep.length < head.path.length ? head.path[keep.length]!.seq : null, endStatus, endingStepId: endStatus ? step.id : null, outcome,
-    },
-  });
+  const { rows: [written] } = await onPooledClient(deps, (c) => c.query<{ inserted: number }>({
+    name: 'bench-step-write', text: WRITE_SQL,
+    values: [
+      input.id, ctx.shopId, diagnosisId, seq, step.id, step.kind, JSON.stringify(decided.shown), decided.entered, decided.value,
+      decided.unit, decided.verdict, decided.bandId, decided.answerId, input.note, input.startedAt, input.answeredAt, hash, decided.next,
+      keep.length < head.path.length ? head.path[keep.length]!.seq : null, endStatus, endStatus ? step.id : null, outcome,
+    ],
+  }));
   // Nothing stored: the diagnosis ended, or the same id arrived at the same moment. Read again.
   if (!written || written.inserted === 0) return null;
   const result: StepResult = {
@@ -121,7 +135,8 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
   return { result, handoff: step.kind === 'handoff' };
 }
 
-const isSeqConflict = (e: unknown) => e instanceof UniqueConstraintError && JSON.stringify(e.fields ?? {}).includes('seq');
+const isSeqConflict = (e: unknown) => (e as { code?: string; constraint?: string }).code === '23505'
+  && (e as { constraint?: string }).constraint === 'diagnosis_steps_diagnosis_seq_key';
 
 /**
  * Records one answered step: re-checked against the pinned version, stored exactly once (the
@@ -131,7 +146,7 @@ const isSeqConflict = (e: unknown) => e instanceof UniqueConstraintError && JSON
 export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput): Promise<StepResult> {
   const hash = payloadHash(input);
   for (let attempt = 0; attempt < 4; attempt++) {
-    const [head] = await deps.sequelize.query<Head>(HEAD_SQL, { type: QueryTypes.SELECT, replacements: { diagnosisId, shopId: ctx.shopId, rowId: input.id } });
+    const { rows: [head] } = await onPooledClient(deps, (c) => c.query<Head>({ name: 'bench-step-head', text: HEAD_SQL, values: [diagnosisId, ctx.shopId, input.id] }));
     if (!head) throw notFound('That diagnosis');
     // Another technician's diagnosis is not theirs to read either, so it does not exist for them.
     if (head.technician_id !== ctx.userId && !ctx.roles.includes('lead')) throw notFound('That diagnosis');

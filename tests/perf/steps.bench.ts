@@ -86,7 +86,7 @@ async function signIn(base: string): Promise<{ cookie: string; csrf: string }> {
 /** A chain of steps on one diagnosis; a lane is held by one request at a time. */
 interface Lane { session?: { cookie: string; csrf: string } | undefined; diagnosis: string; after: string | null; count: number }
 
-function run(opts: { url: string; sessions?: { cookie: string; csrf: string }[]; diagnoses: string[]; bare: boolean; floor?: boolean }): Promise<autocannon.Result> {
+function run(opts: { url: string; sessions?: { cookie: string; csrf: string }[]; diagnoses: string[]; bare: boolean; floor?: string }): Promise<autocannon.Result> {
   let nextDiagnosis = 0;
   const fresh = () => opts.diagnoses[nextDiagnosis++ % opts.diagnoses.length]!;
   // autocannon resets a connection's context after each (one-request) sequence, so the chains
@@ -103,7 +103,7 @@ function run(opts: { url: string; sessions?: { cookie: string; csrf: string }[];
           context.lane = lane;
           context.pending = randomUUID();
           const body = { id: context.pending, after: lane.after, stepId: 'exciter', entered: '0,15k', note: '', startedAt: now, answeredAt: now };
-          if (opts.floor) return { ...req, method: 'GET', path: '/api/shop/meters', headers: { cookie: lane.session!.cookie }, body: undefined };
+          if (opts.floor) return { ...req, method: 'GET', path: opts.floor, headers: { cookie: lane.session!.cookie }, body: undefined };
           return {
             ...req,
             path: opts.bare ? '/bare' : `/api/diagnoses/${lane.diagnosis}/steps`,
@@ -154,7 +154,8 @@ async function main(): Promise<void> {
     const bare = await run({ url: env.base, diagnoses: env.diagnoses.slice(0, half / 2), bare: true });
     const steps = await run({ url: env.base, sessions, diagnoses: env.diagnoses.slice(half / 2, half), bare: false });
     // What any signed-in shop request pays (session, user, membership, one small query), for scale.
-    const floor = await run({ url: env.base, sessions, diagnoses: [], bare: false, floor: true });
+    const floor = await run({ url: env.base, sessions, diagnoses: [], bare: false, floor: '/api/shop/meters' });
+    const me = await run({ url: env.base, sessions, diagnoses: [], bare: false, floor: '/api/auth/me' });
     const ratio = steps.requests.average / bare.requests.average;
     const { rows: [stored] } = await db.query<{ n: number; per: number }>(
       'SELECT count(*)::int AS n, count(DISTINCT diagnosis_id)::int AS per FROM diagnosis_steps WHERE diagnosis_id = ANY($1::uuid[])', [env.diagnoses.slice(half / 2, half)]);
@@ -162,6 +163,7 @@ async function main(): Promise<void> {
     console.log(summary('bare', bare));
     console.log(summary('steps', steps));
     console.log(summary('floor', floor), '  (GET /api/shop/meters: session + sign-in lookups + one query)');
+    console.log(summary('me', me), '  (GET /api/auth/me: session + sign-in lookup + memberships)');
     console.log(`ratio  ${(100 * ratio).toFixed(1)} % of the bare throughput; ${stored!.n} steps stored over ${stored!.per} diagnoses`);
     const ok = ratio >= 0.5 && steps.latency.p99 < 50 && steps.errors === 0 && steps.non2xx === 0;
     console.log(ok ? 'targets met (≥ 50 %, p99 < 50 ms, no errors)' : 'TARGETS MISSED (≥ 50 %, p99 < 50 ms, no errors)');

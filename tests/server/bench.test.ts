@@ -1,10 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import pg from 'pg';
 import { randomUUID } from 'node:crypto';
 import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, type Client } from './harness';
 import { publishBenchProcedure, startBody, stepBody, type BenchWorld } from './bench-fixtures';
 import { CoachingNote, Diagnosis, DiagnosisStep, User } from '../../server/models';
 import { markAbandoned } from '../../server/services/housekeeping';
 
+const originalQuery = pg.Client.prototype.query;
 let env: TestEnv;
 let tech: Client;
 let world: BenchWorld;
@@ -131,23 +133,28 @@ describe('stepping through the pinned version', () => {
     expect(rows[2]!.verdict).toBe('above');
   });
 
-  it('records one step with one read and one atomic write (four statements with the sign-in lookups)', async () => {
+  it('records one step with one read and one atomic write (six statements with the session and sign-in lookups)', async () => {
     const id = await start();
     const a = await step(id, 'killLead', null);
     const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    // A pg query counter: every statement any part of the app sends goes through pg.Client#query.
     const sql: string[] = [];
-    // Sequelize's own logging hook sees every statement it sends.
-    const seq = env.runtime.deps.sequelize as unknown as { options: { logging: unknown } };
-    const before = seq.options.logging;
-    seq.options.logging = (s: string) => { sql.push(s); };
+    const spy = vi.spyOn(pg.Client.prototype, 'query').mockImplementation(function (this: pg.Client, ...args: unknown[]) {
+      const q = args[0] as string | { text: string };
+      sql.push(typeof q === 'string' ? q : q.text);
+      return originalQuery.apply(this, args as never) as never;
+    });
     try {
       await step(id, 'exciter', b.id, { entered: '150' });
+      await new Promise((r) => setTimeout(r, 200)); // the session store touches the session after the response
     } finally {
-      seq.options.logging = before;
+      spy.mockRestore();
     }
-    // passport's user lookup, requireShop's membership, then the step's read and its write
-    expect(sql.length, sql.join('\n')).toBeLessThanOrEqual(4);
-    expect(sql.filter((s) => /INSERT INTO diagnosis_steps/.test(s))).toHaveLength(1);
+    const mine = sql.filter((s) => /diagnosis_steps/.test(s));
+    expect(mine, sql.join('\n---\n')).toHaveLength(2);
+    expect(mine.filter((s) => /INSERT INTO diagnosis_steps/.test(s))).toHaveLength(1);
+    // the rest: session read and touch, passport's user, requireShop's membership
+    expect(sql.length, sql.join('\n---\n')).toBeLessThanOrEqual(6);
   });
 
   it('the same step sent five times at once is stored once', async () => {
