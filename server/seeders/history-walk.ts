@@ -61,21 +61,20 @@ export interface WalkPlan {
  */
 export function planWalks(doc: ProcedureDocument): WalkPlan {
   const byId = new Map(doc.steps.map((s) => [s.id, s] as const));
-  const reaches = new Map<StepId, Set<StepId>>();
-  const visit = (id: StepId, seen: Set<StepId>): Set<StepId> => {
-    const known = reaches.get(id);
-    if (known) return known;
-    const out = new Set<StepId>();
-    const step = byId.get(id);
-    if (!step || seen.has(id)) return out;
-    seen.add(id);
-    if (isEnding(step)) out.add(id);
-    for (const b of branchesOf(step)) for (const e of visit(b.to, seen)) out.add(e);
-    seen.delete(id);
-    reaches.set(id, out);
-    return out;
-  };
-  const reachable = visit(doc.start, new Set());
+  // Which endings each step can still reach: a backward search from every ending (exact with loops).
+  const into = new Map<StepId, StepId[]>();
+  for (const st of doc.steps) for (const b of branchesOf(st)) into.set(b.to, [...(into.get(b.to) ?? []), st.id]);
+  const reaches = new Map<StepId, Set<StepId>>(doc.steps.map((st) => [st.id, new Set<StepId>()]));
+  for (const ending of doc.steps.filter(isEnding)) {
+    const queue = [ending.id];
+    const seen = new Set(queue);
+    while (queue.length) {
+      const id = queue.pop()!;
+      reaches.get(id)?.add(ending.id);
+      for (const from of into.get(id) ?? []) if (!seen.has(from)) { seen.add(from); queue.push(from); }
+    }
+  }
+  const reachable = reaches.get(doc.start) ?? new Set<StepId>();
   const findings = doc.steps.filter((s) => s.kind === 'finding' && reachable.has(s.id));
   const handoffs = doc.steps.filter((s) => s.kind === 'handoff' && reachable.has(s.id));
   const handoffShare = handoffs.length ? 0.08 : 0;
@@ -89,7 +88,8 @@ export function planWalks(doc: ProcedureDocument): WalkPlan {
 }
 
 function drawEnding(plan: WalkPlan, rand: () => number, among?: Set<StepId>): StepId {
-  const options = among ? plan.endings.filter((e) => among.has(e.id)) : plan.endings;
+  const within = among ? plan.endings.filter((e) => among.has(e.id)) : plan.endings;
+  const options = within.length ? within : plan.endings;
   const total = options.reduce((a, e) => a + e.share, 0);
   let r = rand() * total;
   for (const e of options) if ((r -= e.share) <= 0) return e.id;

@@ -4,6 +4,7 @@ import { branchesOf } from '@shared/schema/branches';
 import { planWalks, rng, valueInBand, walkTowardsFault } from '../../server/seeders/history-walk';
 import { scheduleVisits } from '../../server/seeders/history';
 import { fixtureDoc } from './debrief.fixture';
+import { doc as buildDoc, finding, observation } from '../shared/fixtures';
 
 // The demo history generator (invented data): its walks must be walks the procedure allows.
 describe('the demo history walker', () => {
@@ -28,6 +29,16 @@ describe('the demo history walker', () => {
       });
       expect(['finding', 'handoff']).toContain(byId.get(walk.endingStepId)!.kind);
     }
+  });
+
+  it('in a procedure with a loop every step knows every ending it can still reach', () => {
+    const looped = planWalks(buildDoc([
+      observation('a', { again: 'b', done: 'f1' }),
+      observation('b', { back: 'a', stop: 'f2' }),
+      finding('f1'), finding('f2'),
+    ]));
+    expect([...looped.reaches.get('a')!].sort()).toEqual(['f1', 'f2']);
+    expect([...looped.reaches.get('b')!].sort()).toEqual(['f1', 'f2']);
   });
 
   it('a reading value lies in the band its branch names', () => {
