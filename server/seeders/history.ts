@@ -55,7 +55,7 @@ async function loadVersions(deps: Pick<AppDeps, 'sequelize'>, shopId: string): P
       return [st.id, rest] as const;
     }));
     return { id: r.id, plan: planWalks(doc), quantities, shown };
-  });
+  }).filter((v) => v.plan.endings.length > 0); // a version with no reachable ending cannot be walked
 }
 
 /** The shop's technicians plus a few invented apprentices, each with their own pace and bias. */
