@@ -24,7 +24,8 @@ test.beforeAll(async () => {
 test('a trainer finds where No spark diagnoses end, replays one and leaves a coaching note', async ({ page }) => {
   test.setTimeout(240_000);
   await signIn(page, 'trainer');
-  await page.goto('/debrief/analytics');
+  await expect(page).toHaveURL(/\/debrief/);
+  await page.getByRole('navigation', { name: 'Debrief' }).getByRole('link', { name: 'Procedure analytics' }).click();
   await expect(page.getByRole('heading', { name: /Analytics: No spark/i })).toBeVisible();
   const top = page.getByTestId('top-ending');
   await expect(top).toBeVisible();
