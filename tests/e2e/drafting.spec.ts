@@ -24,6 +24,7 @@ async function connect(page: Page, from: string, handle: string, to: string): Pr
   const source = page.getByTestId(`handle-${from}-${handle}`);
   const target = node(page, to).locator('.react-flow__handle.target');
   await dragBetween(page, source, target);
+  await page.screenshot({ path: '.tmp/drafting-debug-connect.png' });
   await expect(page.locator(`.react-flow__edge[data-id="${from}:${handle}"]`)).toHaveCount(1);
 }
 
@@ -32,16 +33,26 @@ async function dragBetween(page: Page, a: Locator, b: Locator): Promise<void> {
   const t = (await b.boundingBox())!;
   await page.mouse.move(s.x + s.width / 2, s.y + s.height / 2);
   await page.mouse.down();
+  await page.mouse.move(s.x + s.width / 2 + 4, s.y + s.height / 2 + 4);
   await page.mouse.move(t.x + t.width / 2, t.y + t.height / 2, { steps: 12 });
   await page.mouse.up();
 }
 
+/** Drags a step by its left part (clear of the handles) so that its top-left ends near (x, y). */
 async function moveNode(page: Page, id: string, x: number, y: number): Promise<void> {
   const box = (await node(page, id).boundingBox())!;
-  await page.mouse.move(box.x + box.width / 2, box.y + 20);
+  await page.mouse.move(box.x + 16, box.y + 40);
   await page.mouse.down();
-  await page.mouse.move(x, y, { steps: 8 });
+  await page.mouse.move(box.x + 20, box.y + 44); // the canvas starts a drag on the first move
+  await page.mouse.move(x + 16, y + 40, { steps: 10 });
   await page.mouse.up();
+}
+
+/** Automatic layout (elkjs, loaded on first use), then waits until the canvas says it is done. */
+async function arrange(page: Page): Promise<void> {
+  await page.getByRole('button', { name: 'Arrange automatically' }).click();
+  await expect(page.getByTestId('canvas-frame')).toHaveAttribute('aria-busy', 'true');
+  await expect(page.getByTestId('canvas-frame')).toHaveAttribute('aria-busy', 'false', { timeout: 30_000 });
 }
 
 test('the editor opens the largest demo procedure in under 1.5 s', async ({ page }) => {
@@ -61,6 +72,7 @@ test('the editor opens the largest demo procedure in under 1.5 s', async ({ page
 });
 
 test('an author builds a procedure from the palette, fixes a band gap, previews it, and a lead publishes it', async ({ page, browser }) => {
+  test.setTimeout(180_000);
   await signIn(page, 'author');
   await page.goto('/drafting');
   await page.getByRole('button', { name: 'New procedure' }).click();
@@ -70,16 +82,24 @@ test('an author builds a procedure from the palette, fixes a band gap, previews 
   await expect(node(page, 'prepare')).toBeVisible();
   await shot(page, 'drafting-list-new');
 
-  // one step dragged from the palette, the others added by pressing their palette button
-  await page.getByTestId('palette-reading').dragTo(page.getByTestId('canvas'), { targetPosition: { x: 500, y: 330 } });
+  // the author lays the steps out by hand, one row per level, away from the edges where the canvas pans
+  await page.getByRole('button', { name: /zoom out/i }).click();
+  await page.waitForTimeout(500); // the zoom animates
+  const frame = (await page.getByTestId('canvas').boundingBox())!;
+  const left = frame.x + frame.width / 2 - 150;
+  await moveNode(page, 'prepare', left, frame.y + 60);
+  expect(Math.abs((await node(page, 'prepare').boundingBox())!.y - (frame.y + 60))).toBeLessThan(12);
+  // one step dragged from the palette onto its place, the others added by pressing their palette button
+  await page.getByTestId('palette-reading').dragTo(page.getByTestId('canvas'), { targetPosition: { x: frame.width / 2 - 20, y: 290 } });
   await expect(node(page, 'reading1')).toBeVisible();
   await page.getByTestId('palette-observation').click();
   await page.getByTestId('palette-finding').click();
   await page.getByTestId('palette-finding').click();
   await expect(page.locator('.react-flow__node')).toHaveCount(5);
-  await page.getByRole('button', { name: 'Fit to view' }).click();
-  await page.getByRole('button', { name: 'Arrange automatically' }).click();
-  await page.waitForTimeout(600);
+  // newest first: they lie on top of the older ones
+  await moveNode(page, 'finding2', frame.x + frame.width - 320, frame.y + 600);
+  await moveNode(page, 'finding1', frame.x + 80, frame.y + 600);
+  await moveNode(page, 'observation1', left + 60, frame.y + 410);
 
   await connect(page, 'prepare', 'next', 'reading1');
   await connect(page, 'reading1', 'band:below', 'finding1');
@@ -88,7 +108,7 @@ test('an author builds a procedure from the palette, fixes a band gap, previews 
   await connect(page, 'observation1', 'answer:yes', 'finding2');
   await connect(page, 'observation1', 'answer:no', 'finding1');
   await expect(page.locator('.react-flow__edge-text', { hasText: 'Within limits' })).toBeVisible();
-  await page.getByRole('button', { name: 'Arrange automatically' }).click();
+  await arrange(page);
   await expect(page.getByTestId('lint-counts')).toContainText('0 errors');
 
   // open a gap between "Below" and "Within": 0.2 .. 0.3 Ω routes nowhere

@@ -1,9 +1,14 @@
 import type { ProcedureDocument, Position } from '@shared/schema';
 import { branchesOf } from '@shared/schema';
 
+/** Width of a step node: room for every band or answer handle side by side. */
+export function nodeWidth(handles: number): number {
+  return Math.max(240, handles * 96 + 8);
+}
+
 /** Node box sizes the canvas draws (step-node.tsx), so the layout leaves room for the handles. */
-export function nodeSize(kind: string): { width: number; height: number } {
-  return { width: 240, height: kind === 'reading' || kind === 'observation' ? 150 : kind === 'task' || kind === 'formula' ? 110 : 80 };
+export function nodeSize(kind: string, handles: number): { width: number; height: number } {
+  return { width: nodeWidth(handles), height: kind === 'reading' || kind === 'observation' ? 150 : kind === 'task' || kind === 'formula' ? 110 : 80 };
 }
 
 /**
@@ -19,11 +24,12 @@ export async function autoLayout(doc: ProcedureDocument): Promise<{ id: string; 
     layoutOptions: {
       'elk.algorithm': 'layered',
       'elk.direction': 'DOWN',
-      'elk.layered.spacing.nodeNodeBetweenLayers': '70',
-      'elk.spacing.nodeNode': '40',
+      'elk.layered.spacing.nodeNodeBetweenLayers': '90',
+      'elk.spacing.nodeNode': '60',
+      'elk.spacing.componentComponent': '90',
       'elk.layered.nodePlacement.strategy': 'BRANDES_KOEPF',
     },
-    children: doc.steps.map((s) => ({ id: s.id, ...nodeSize(s.kind) })),
+    children: doc.steps.map((s) => ({ id: s.id, ...nodeSize(s.kind, branchesOf(s).length || (s.kind === 'task' || s.kind === 'formula' ? 1 : 0)) })),
     edges: doc.steps.flatMap((s) => branchesOf(s).filter((b) => ids.has(b.to)).map((b) => ({ id: `${b.from}:${b.handle}`, sources: [b.from], targets: [b.to] }))),
   };
   const out = await elk.layout(graph);

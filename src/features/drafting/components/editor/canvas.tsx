@@ -16,23 +16,37 @@ export const PALETTE_MIME = 'application/x-sparkwright-kind';
 interface Props {
   doc: ProcedureDocument;
   marks: FlowMarks;
+  /** Steps to select from outside the canvas (a soundness finding, a review item); `seq` makes a repeat count. */
+  selectRequest: { ids: string[]; seq: number };
   readOnly: boolean;
   onEdit: (edit: Edit) => void;
   onSelect: (ids: string[]) => void;
 }
 
 /** React Flow bound to the document: every change the canvas reports becomes one Edit. */
-export function Canvas({ doc, marks, readOnly, onEdit, onSelect }: Props) {
+export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }: Props) {
   const flow = useMemo(() => toFlow(doc, marks), [doc, marks]);
   // React Flow needs to move nodes while they are dragged; the document changes on drop.
   const [nodes, setNodes] = useState<StepNode[]>(flow.nodes);
-  useEffect(() => setNodes(flow.nodes), [flow.nodes]);
+  // Selection and measurements belong to React Flow: a document change keeps them, and a step
+  // being dragged keeps its position until the drop, so the two never fight over a node.
+  useEffect(() => setNodes((prev) => {
+    const before = new Map(prev.map((n) => [n.id, n]));
+    return flow.nodes.map((n) => {
+      const p = before.get(n.id);
+      if (!p) return n;
+      return { ...n, selected: p.selected ?? false, ...(p.measured ? { measured: p.measured } : {}), ...(p.dragging ? { position: p.position, dragging: true } : {}) };
+    });
+  }), [flow.nodes]);
+  useEffect(() => {
+    if (selectRequest.seq === 0) return;
+    const wanted = new Set(selectRequest.ids);
+    setNodes((prev) => prev.map((n) => (n.selected === wanted.has(n.id) ? n : { ...n, selected: wanted.has(n.id) })));
+  }, [selectRequest]);
   const { screenToFlowPosition } = useReactFlow();
 
   const onNodesChange = useCallback((changes: NodeChange<StepNode>[]) => {
     setNodes((ns) => applyNodeChanges(changes, ns));
-    const moves = changes.flatMap((c) => (c.type === 'position' && c.dragging === false && c.position ? [{ id: c.id, position: c.position }] : []));
-    if (moves.length > 0) onEdit({ type: 'move-steps', moves });
     const removed = changes.flatMap((c) => (c.type === 'remove' ? [c.id] : []));
     if (removed.length > 0) onEdit({ type: 'remove-steps', ids: removed });
   }, [onEdit]);
@@ -47,6 +61,11 @@ export function Canvas({ doc, marks, readOnly, onEdit, onSelect }: Props) {
 
   const onConnect = useCallback((c: Connection) => {
     if (c.sourceHandle) onEdit({ type: 'connect', from: c.source, handle: c.sourceHandle, to: c.target });
+  }, [onEdit]);
+
+  // the document learns where steps went when a drag ends (all dragged steps, for a multi-select)
+  const onNodeDragStop = useCallback((_e: unknown, _n: StepNode, dragged: StepNode[]) => {
+    onEdit({ type: 'move-steps', moves: dragged.map((n) => ({ id: n.id, position: { x: Math.round(n.position.x), y: Math.round(n.position.y) } })) });
   }, [onEdit]);
 
   const onSelectionChange = useCallback(({ nodes: sel }: OnSelectionChangeParams) => onSelect(sel.map((n) => n.id)), [onSelect]);
@@ -68,6 +87,7 @@ export function Canvas({ doc, marks, readOnly, onEdit, onSelect }: Props) {
         onNodesChange={onNodesChange}
         onEdgesChange={onEdgesChange}
         onConnect={onConnect}
+        onNodeDragStop={onNodeDragStop}
         onSelectionChange={onSelectionChange}
         nodesDraggable={!readOnly}
         nodesConnectable={!readOnly}
@@ -76,6 +96,7 @@ export function Canvas({ doc, marks, readOnly, onEdit, onSelect }: Props) {
         multiSelectionKeyCode={['Shift', 'Meta', 'Control']}
         selectionKeyCode="Shift"
         fitView
+        fitViewOptions={{ maxZoom: 1 }}
         minZoom={0.1}
         maxZoom={2}
         proOptions={{ hideAttribution: true }}

@@ -4,6 +4,7 @@ import { cx } from '../../../../components/ui/cx';
 import type { StepNode } from '../../lib/flow';
 import { KIND_LABELS } from '../labels';
 import { KIND_TONE, OUTLINE, OutlineShape, StepGlyph } from './step-glyphs';
+import { nodeWidth } from '../../lib/layout';
 
 /**
  * One step on the canvas: the ISO 5807 outline with the title inside, and below it one labelled
@@ -15,7 +16,8 @@ export const StepNodeView = memo(function StepNodeView({ data, selected }: NodeP
   const tone = KIND_TONE[step.kind];
   return (
     <div
-      className={cx('w-[240px] rounded-md', selected && 'ring-4 ring-signal/70', current && 'ring-4 ring-ink', onPath && !current && !selected && 'ring-4 ring-go/50')}
+      style={{ width: nodeWidth(handles.length) }}
+      className={cx('rounded-md', selected && 'ring-4 ring-signal/70', current && 'ring-4 ring-ink', onPath && !current && !selected && 'ring-4 ring-go/50')}
       data-step-id={step.id}
       data-testid={`step-${step.id}`}
     >
@@ -36,8 +38,8 @@ export const StepNodeView = memo(function StepNodeView({ data, selected }: NodeP
       {handles.length > 0 && (
         <div className="mt-1 flex justify-center gap-1">
           {handles.map((h) => (
-            <div key={h.id} className={cx('relative max-w-[110px] truncate rounded border bg-panel px-1.5 pb-2 text-[11px] font-semibold', h.open ? 'border-dashed border-stop text-stop' : 'border-line text-ink')} title={h.label}>
-              {h.label}
+            <div key={h.id} className={cx('relative w-[92px] rounded border bg-panel px-1.5 pb-2 text-center text-[11px] font-semibold', h.open ? 'border-dashed border-stop text-stop' : 'border-line text-ink')} title={h.label}>
+              <span className="block truncate">{h.label}</span>
               <Handle type="source" id={h.id} position={Position.Bottom} data-testid={`handle-${step.id}-${h.id}`}
                 className={cx('!h-3.5 !w-3.5 !border-2', h.open ? '!border-stop !bg-panel' : '!border-ink !bg-ink')} />
             </div>

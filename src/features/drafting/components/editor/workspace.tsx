@@ -62,34 +62,48 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
       for (const s of diff.added) changes.set(s.id, 'added');
       for (const s of diff.changed) changes.set(s.id, 'changed');
     }
-    return { issues, changes, selected: new Set(selected), ...(preview ? { path: new Set(walk.path), current: walk.current } : {}) };
-  }, [report, diff, tab, version.status, selected, preview, walk]);
+    return { issues, changes, ...(preview ? { path: new Set(walk.path), current: walk.current } : {}) };
+  }, [report, diff, tab, version.status, preview, walk]);
+  const [selectRequest, setSelectRequest] = useState({ ids: [] as string[], seq: 0 });
+  const select = useCallback((ids: string[]) => { setSelected(ids); setSelectRequest((r) => ({ ids, seq: r.seq + 1 })); }, []);
 
   const onEdit = useCallback((e: Edit) => {
     if (!editable) return;
     dispatch({ type: 'edit', edit: e });
-    if (e.type === 'update-step' && e.step.id !== e.id) setSelected((s) => s.map((x) => (x === e.id ? e.step.id : x)));
-    if (e.type === 'add-steps') setSelected(e.steps.map((s) => s.id));
-  }, [editable]);
-  const onSelect = useCallback((ids: string[]) => { setSelected(ids); if (ids.length === 1) setTab('step'); }, []);
+    if (e.type === 'update-step' && e.step.id !== e.id) select(selected.map((x) => (x === e.id ? e.step.id : x)));
+    if (e.type === 'add-steps') select(e.steps.map((s) => s.id));
+  }, [editable, select, selected]);
+  const onSelect = useCallback((ids: string[]) => {
+    // React Flow reports the selection again after every node update; only a real change counts
+    setSelected((prev) => (prev.length === ids.length && prev.every((id, i) => id === ids[i]) ? prev : ids));
+    if (ids.length === 1) setTab((t) => (t === 'review' ? t : 'step'));
+  }, []);
   const pick = useCallback((ids: string[]) => {
-    setSelected(ids);
+    select(ids);
     if (ids.length > 0) void fitView({ nodes: ids.map((id) => ({ id })), duration: 300, maxZoom: 1.2, padding: 0.4 });
-  }, [fitView]);
+  }, [fitView, select]);
   const onPath = useCallback((path: string[], current: string | null) => setWalk({ path, current }), []);
 
   const addAtCentre = (kind: StepKind) => {
     const v = getViewport();
-    const at = { x: Math.round((-v.x + 400) / v.zoom), y: Math.round((-v.y + 200) / v.zoom) };
+    // a grid from the top left of the view, so steps added one after another do not hide each other
+    const n = doc.steps.length;
+    const at = { x: Math.round((-v.x + 40) / v.zoom) + (n % 3) * 280, y: Math.round((-v.y + 40) / v.zoom) + (Math.floor(n / 3) % 3) * 190 };
     onEdit({ type: 'add-steps', steps: [stepFor(doc, kind, at)] });
   };
-  const layout = () => void autoLayout(doc).then((moves) => { onEdit({ type: 'move-steps', moves }); setTimeout(() => void fitView({ duration: 300 }), 50); });
+  const [arranging, setArranging] = useState(false);
+  const layout = () => {
+    setArranging(true);
+    void autoLayout(doc)
+      .then((moves) => { onEdit({ type: 'move-steps', moves }); setTimeout(() => void fitView({ duration: 200, maxZoom: 1 }), 50); })
+      .finally(() => setTimeout(() => setArranging(false), 300));
+  };
 
   useEditorKeys({
     undo: () => editable && dispatch({ type: 'undo' }),
     redo: () => editable && dispatch({ type: 'redo' }),
     layout: () => editable && layout(),
-    fit: () => void fitView({ duration: 300 }),
+    fit: () => void fitView({ duration: 300, maxZoom: 1 }),
     preview: () => setPreview((p) => !p),
     copy: () => (selected.length > 0 ? copySteps(doc, new Set(selected)) : null),
     paste: (text) => { const steps = pasteSteps(doc, text); if (steps) onEdit({ type: 'add-steps', steps }); },
@@ -114,7 +128,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
         <ToolButton label="Undo" shortcut="Ctrl+Z" disabled={!editable || history.past.length === 0} onClick={() => dispatch({ type: 'undo' })}>↶ Undo</ToolButton>
         <ToolButton label="Redo" shortcut="Ctrl+Shift+Z" disabled={!editable || history.future.length === 0} onClick={() => dispatch({ type: 'redo' })}>↷ Redo</ToolButton>
         <ToolButton label="Arrange automatically" shortcut="L" disabled={!editable} onClick={layout}>Arrange</ToolButton>
-        <ToolButton label="Fit to view" shortcut="F" onClick={() => void fitView({ duration: 300 })}>Fit</ToolButton>
+        <ToolButton label="Fit to view" shortcut="F" onClick={() => void fitView({ duration: 300, maxZoom: 1 })}>Fit</ToolButton>
         <ToolButton label="Preview as a technician" shortcut="P" pressed={preview} onClick={() => setPreview((p) => !p)}>Preview</ToolButton>
         {editable && <ToolButton label="Save now" disabled={!saving.dirty} onClick={() => void saving.save()}>Save</ToolButton>}
         <span className="ml-2 text-xs text-ink-soft">Shift-drag to select several · Ctrl+C / Ctrl+V copies steps · Delete removes</span>
@@ -124,8 +138,8 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
       {saving.state.kind === 'failed' && <Alert title="Saving failed">{saving.state.message}</Alert>}
       <div className="flex min-h-0 flex-1 gap-2">
         {editable && <aside className="w-44 shrink-0 overflow-y-auto"><Palette disabled={!editable} onAdd={addAtCentre} /></aside>}
-        <div className="min-w-0 flex-1 overflow-hidden rounded-[var(--radius-card)] border border-line bg-panel">
-          <Canvas doc={doc} marks={marks} readOnly={!editable} onEdit={onEdit} onSelect={onSelect} />
+        <div className="min-w-0 flex-1 overflow-hidden rounded-[var(--radius-card)] border border-line bg-panel" aria-busy={arranging} data-testid="canvas-frame">
+          <Canvas doc={doc} marks={marks} selectRequest={selectRequest} readOnly={!editable} onEdit={onEdit} onSelect={onSelect} />
         </div>
         <aside className={cx('flex shrink-0 flex-col gap-3 overflow-y-auto rounded-[var(--radius-card)] border border-line bg-panel p-3', preview ? 'w-[420px]' : 'w-[380px]')}>
           {preview ? <PreviewPanel doc={doc} onPath={onPath} onClose={() => setPreview(false)} /> : (

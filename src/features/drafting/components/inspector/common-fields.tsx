@@ -20,11 +20,7 @@ export function CommonFields({ step, takenIds, readOnly, onChange }: { step: Ste
     if (v.id !== step.id && takenIds.includes(v.id)) return { field: 'id' as const, message: 'Another step has this id' };
     return null;
   }, [step.id, takenIds]);
-  const change = useCallback((s: Step) => {
-    const { minutes, ...rest } = s;
-    onChange(minutes === undefined || Number.isNaN(minutes) ? (rest as Step) : s);
-  }, [onChange]);
-  const form = useStepForm(step, schema, pick, change, check);
+  const form = useStepForm(step, schema, pick, onChange, check);
   const { errors } = form.formState;
   const hint = useMemo(() => 'Formulas name earlier steps by this id', []);
   return (

@@ -23,17 +23,25 @@ export function useStepForm<V extends FieldValues>(
     if (j !== seen.current) { seen.current = j; form.reset(values); }
   });
   useEffect(() => {
-    const sub = form.watch((v) => {
+    const sub = form.watch((v, info) => {
+      // only what the author typed; a reset from outside must not echo back as an edit
+      if (!info.name) return;
       const parsed = schema.safeParse(v);
       if (!parsed.success) return;
       const problem = extraCheck?.(parsed.data);
       if (problem) { form.setError(problem.field as never, { message: problem.message }); return; }
-      const merged = stepSchema.safeParse({ ...current.current, ...parsed.data });
+      // an emptied optional number (NaN from the input) removes the field
+      const next: Record<string, unknown> = { ...current.current };
+      for (const [k, x] of Object.entries(parsed.data)) {
+        if (x === undefined || (typeof x === 'number' && Number.isNaN(x))) delete next[k];
+        else next[k] = x;
+      }
+      const merged = stepSchema.safeParse(next);
       if (!merged.success) return;
-      seen.current = JSON.stringify(parsed.data);
-      onChange(merged.data);
+      seen.current = JSON.stringify(pick(merged.data));
+      if (JSON.stringify(merged.data) !== JSON.stringify(current.current)) onChange(merged.data);
     });
     return () => sub.unsubscribe();
-  }, [form, schema, onChange, extraCheck]);
+  }, [form, schema, pick, onChange, extraCheck]);
   return form;
 }
