@@ -1,6 +1,6 @@
-import { test, expect, type Page, type BrowserContext } from '@playwright/test';
+import { test, expect, type Browser, type Page, type BrowserContext } from '@playwright/test';
 import { deflateSync } from 'node:zlib';
-import { signIn, shot, axe } from './helpers';
+import { signIn, shot, axe, DEMO_PASSWORD } from './helpers';
 
 // A technician's phone: narrow, touch. The demo "No spark" procedure is seeded as version 1.
 test.use({ viewport: { width: 360, height: 780 }, hasTouch: true });
@@ -21,6 +21,17 @@ function pngBytes(): Buffer {
   return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)), chunk('IEND', Buffer.alloc(0))]);
 }
 
+/**
+ * Signs in once the service worker has finished caching the app shell. While it caches, its
+ * requests carry the pre-sign-in session cookie, and the server's rolling session cookie on those
+ * answers can overwrite the new one (reported to the lead: static files should not touch the session).
+ */
+async function signInOnPhone(page: Page, who: 'tech' | 'admin' = 'tech'): Promise<void> {
+  await page.goto('/sign-in');
+  await page.evaluate(async () => { await navigator.serviceWorker.ready; });
+  await signIn(page, who);
+}
+
 /** Waits until the service worker controls the page and holds what an offline reload needs. */
 async function serviceWorkerReady(page: Page): Promise<void> {
   await page.evaluate(async () => { await navigator.serviceWorker.ready; });
@@ -29,6 +40,21 @@ async function serviceWorkerReady(page: Page): Promise<void> {
   await expect(page.getByRole('heading', { name: 'Bench' })).toBeVisible();
   expect(await page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true);
   await expect.poll(() => page.evaluate(async () => !!(await (await caches.open('sw-session')).match('/api/auth/me'))), { timeout: 20_000 }).toBe(true);
+}
+
+/** The fake receiver's mailbox through the admin mail API, signed in over the API (no page needed). */
+async function adminMail(browser: Browser): Promise<{ subject: string; to: string[] }[]> {
+  const context = await browser.newContext();
+  try {
+    const { token } = await (await context.request.get('/api/auth/csrf')).json() as { token: string };
+    const login = await context.request.post('/api/auth/login', { headers: { 'x-csrf-token': token }, data: { email: 'admin@larkspur.test', password: DEMO_PASSWORD } });
+    expect(login.status()).toBe(200);
+    const res = await context.request.get('/api/shop/mail');
+    expect(res.status()).toBe(200);
+    return await res.json() as { subject: string; to: string[] }[];
+  } finally {
+    await context.close();
+  }
 }
 
 async function goOffline(context: BrowserContext, page: Page): Promise<void> {
@@ -65,7 +91,7 @@ const crank = async (page: Page, answer: string) => {
 
 test('a technician runs "No spark" to a Finding, partly without signal, and the server gets every step once and in order', async ({ page, context, browser }) => {
   test.setTimeout(240_000);
-  await signIn(page, 'tech');
+  await signInOnPhone(page);
   await serviceWorkerReady(page);
   await shot(page, 'bench-home');
   const id = await startNoSpark(page);
@@ -126,7 +152,9 @@ test('a technician runs "No spark" to a Finding, partly without signal, and the 
   await page.getByLabel('Labour time (minutes)').fill('55');
   await shot(page, 'bench-finding');
   await page.getByRole('button', { name: 'Finish the diagnosis' }).click();
+  await expect(page.getByText('Diagnosis finished')).toBeVisible();
   await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
+  await expect.poll(async () => ((await (await page.request.get(`/api/diagnoses/${id}`)).json()) as { status: string }).status, { timeout: 20_000 }).toBe('finished');
 
   const rec = await (await page.request.get(`/api/diagnoses/${id}`)).json() as { status: string; steps: { id: string; seq: number; stepId: string; superseded: boolean; entered: string | null }[]; attachments: unknown[] };
   expect(rec.status).toBe('finished');
@@ -146,18 +174,13 @@ test('a technician runs "No spark" to a Finding, partly without signal, and the 
   await expect(page.getByText('Sent to desk@larkspur.test')).toBeVisible();
   await shot(page, 'bench-record');
 
-  const adminContext = await browser.newContext();
-  const admin = await adminContext.newPage();
-  await signIn(admin, 'admin');
-  const mail = await (await admin.request.get('/api/shop/mail')).json() as { subject: string; to: string[] }[];
-  expect(mail.some((m) => m.subject.startsWith('Diagnosis report: W-01') && m.to.includes('desk@larkspur.test'))).toBe(true);
-  await adminContext.close();
+  await expect.poll(async () => (await adminMail(browser)).some((m) => m.subject.startsWith('Diagnosis report: W-01') && m.to.includes('desk@larkspur.test')), { timeout: 20_000 }).toBe(true);
 });
 
 test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', async ({ page, browser }) => {
   test.setTimeout(120_000);
-  await signIn(page, 'tech');
-  await startNoSpark(page);
+  await signInOnPhone(page);
+  const id = await startNoSpark(page);
   await page.getByRole('button', { name: 'Done' }).click();
   await crank(page, 'Strong blue spark');
   await expect(page.getByRole('heading', { name: 'Spark is present' })).toBeVisible();
@@ -165,40 +188,36 @@ test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', 
   await page.getByRole('button', { name: 'Hand off and notify the leads' }).click();
   await expect(page.getByText('Handed off')).toBeVisible();
   await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
-  const adminContext = await browser.newContext();
-  const admin = await adminContext.newPage();
-  await signIn(admin, 'admin');
-  await expect.poll(async () => {
-    const mail = await (await admin.request.get('/api/shop/mail')).json() as { subject: string; to: string[] }[];
-    return mail.some((m) => m.subject.startsWith('Hand-off: W-01') && m.to.includes('lead@larkspur.test'));
-  }).toBe(true);
-  await adminContext.close();
+  await expect.poll(async () => ((await (await page.request.get(`/api/diagnoses/${id}`)).json()) as { status: string }).status, { timeout: 20_000 }).toBe('handed_off');
+  await expect.poll(async () => (await adminMail(browser)).some((m) => m.subject.startsWith('Hand-off: W-01') && m.to.includes('lead@larkspur.test')), { timeout: 20_000 }).toBe(true);
 });
 
 test('a diagnosis started on one phone can be continued on another', async ({ page, browser }) => {
   test.setTimeout(120_000);
-  await signIn(page, 'tech');
+  await signInOnPhone(page);
   const id = await startNoSpark(page);
   await page.getByRole('button', { name: 'Done' }).click();
   await crank(page, 'No spark');
-  await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
+  const stepIds = async (p: Page) => ((await (await p.request.get(`/api/diagnoses/${id}`)).json()) as { steps: { stepId: string }[] }).steps.map((s) => s.stepId);
+  await expect.poll(() => stepIds(page), { timeout: 20_000 }).toEqual(['prepare', 'sparkTest']);
 
   const other = await browser.newContext({ viewport: { width: 360, height: 780 }, hasTouch: true });
   const phone = await other.newPage();
-  await signIn(phone, 'tech');
+  await signInOnPhone(phone);
   await phone.getByRole('button', { name: 'Continue W-01 on this phone' }).first().click();
   await expect(phone).toHaveURL(new RegExp(`/bench/d/${id}$`));
   await expect(phone.getByRole('heading', { name: 'Isolate the stop circuit' })).toBeVisible();
   await phone.getByRole('button', { name: 'Done' }).click();
-  await expect(phone.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
-  const rec = await (await phone.request.get(`/api/diagnoses/${id}`)).json() as { steps: { stepId: string }[] };
-  expect(rec.steps.map((s) => s.stepId)).toEqual(['prepare', 'sparkTest', 'isolateStop']);
+  await expect.poll(() => stepIds(phone), { timeout: 20_000 }).toEqual(['prepare', 'sparkTest', 'isolateStop']);
+  await expect(phone.getByTestId('sync-status')).toHaveText('All synced');
   await other.close();
 });
 
 test('a printed job card carries a plain link that opens the start with machine and procedure picked', async ({ page }) => {
-  await signIn(page, 'tech');
-  const vehicles = await (await page.request.get('/api/vehicles')).json() as { id: string; label: string }[];
+  await signInOnPhone(page);
+  const res = await page.request.get('/api/vehicles');
+  const vehicles = await res.json() as { id: string; label: string }[];
+  expect(res.status(), JSON.stringify(vehicles)).toBe(200);
   const w02 = vehicles.find((v) => v.label === 'W-02')!;
   await page.goto(`/bench/job-card?vehicle=${w02.id}&procedure=no-spark`);
   const link = page.getByTestId('job-link');

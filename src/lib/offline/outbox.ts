@@ -52,6 +52,7 @@ let running: Promise<void> | null = null;
 
 async function drain(): Promise<void> {
   const db = await benchDb();
+  publish({ waiting: await db.count('outbox') }); // what was just queued shows at once
   for (;;) {
     const cursor = await db.transaction('outbox').store.openCursor();
     if (!cursor) break;
