@@ -13,7 +13,10 @@ export default defineConfig({
     tailwindcss(),
     VitePWA({
       registerType: 'autoUpdate',
-      injectRegister: 'script',
+      // The Bench registers the worker itself once someone is signed in (src/features/bench/area.tsx):
+      // registered on the sign-in page, its precache requests raced the sign-in and the session
+      // cookie refreshed on their answers could replace the new one.
+      injectRegister: null,
       includeAssets: ['icon.svg'],
       manifest: {
         name: 'Sparkwright',

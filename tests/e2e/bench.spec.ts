@@ -21,17 +21,6 @@ function pngBytes(): Buffer {
   return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw)), chunk('IEND', Buffer.alloc(0))]);
 }
 
-/**
- * Signs in once the service worker has finished caching the app shell. While it caches, its
- * requests carry the pre-sign-in session cookie, and the server's rolling session cookie on those
- * answers can overwrite the new one (reported to the lead: static files should not touch the session).
- */
-async function signInOnPhone(page: Page, who: 'tech' | 'admin' = 'tech'): Promise<void> {
-  await page.goto('/sign-in');
-  await page.evaluate(async () => { await navigator.serviceWorker.ready; });
-  await signIn(page, who);
-}
-
 /** Waits until the service worker controls the page and holds what an offline reload needs. */
 async function serviceWorkerReady(page: Page): Promise<void> {
   await page.evaluate(async () => { await navigator.serviceWorker.ready; });
@@ -91,7 +80,7 @@ const crank = async (page: Page, answer: string) => {
 
 test('a technician runs "No spark" to a Finding, partly without signal, and the server gets every step once and in order', async ({ page, context, browser }) => {
   test.setTimeout(240_000);
-  await signInOnPhone(page);
+  await signIn(page, 'tech');
   await serviceWorkerReady(page);
   await shot(page, 'bench-home');
   const id = await startNoSpark(page);
@@ -179,7 +168,7 @@ test('a technician runs "No spark" to a Finding, partly without signal, and the 
 
 test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', async ({ page, browser }) => {
   test.setTimeout(120_000);
-  await signInOnPhone(page);
+  await signIn(page, 'tech');
   const id = await startNoSpark(page);
   await page.getByRole('button', { name: 'Done' }).click();
   await crank(page, 'Strong blue spark');
@@ -194,7 +183,7 @@ test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', 
 
 test('a diagnosis started on one phone can be continued on another', async ({ page, browser }) => {
   test.setTimeout(120_000);
-  await signInOnPhone(page);
+  await signIn(page, 'tech');
   const id = await startNoSpark(page);
   await page.getByRole('button', { name: 'Done' }).click();
   await crank(page, 'No spark');
@@ -203,7 +192,7 @@ test('a diagnosis started on one phone can be continued on another', async ({ pa
 
   const other = await browser.newContext({ viewport: { width: 360, height: 780 }, hasTouch: true });
   const phone = await other.newPage();
-  await signInOnPhone(phone);
+  await signIn(phone, 'tech');
   await phone.getByRole('button', { name: 'Continue W-01 on this phone' }).first().click();
   await expect(phone).toHaveURL(new RegExp(`/bench/d/${id}$`));
   await expect(phone.getByRole('heading', { name: 'Isolate the stop circuit' })).toBeVisible();
@@ -214,7 +203,7 @@ test('a diagnosis started on one phone can be continued on another', async ({ pa
 });
 
 test('a printed job card carries a plain link that opens the start with machine and procedure picked', async ({ page }) => {
-  await signInOnPhone(page);
+  await signIn(page, 'tech');
   const res = await page.request.get('/api/vehicles');
   const vehicles = await res.json() as { id: string; label: string }[];
   expect(res.status(), JSON.stringify(vehicles)).toBe(200);

@@ -8,8 +8,17 @@ import { RecordPage } from './components/record-page';
 import { JobCardPage } from './components/job-card-page';
 
 /** The Bench: the technician's phone-first area. Stepping works from IndexedDB, offline. */
+/** The app shell's service worker (vite-plugin-pwa), so an open diagnosis survives a reload without signal. */
+function registerWorker(): void {
+  if (!import.meta.env.PROD || !('serviceWorker' in navigator)) return;
+  navigator.serviceWorker.register('/sw.js', { scope: '/' }).catch(() => undefined); // offline use is a bonus, never a blocker
+}
+
 export default function BenchArea() {
-  useEffect(() => startOutbox(), []);
+  useEffect(() => {
+    registerWorker();
+    startOutbox();
+  }, []);
   return (
     <Routes>
       <Route index element={<BenchHome />} />
