@@ -1,4 +1,4 @@
-import { lintProcedure, type LintFinding } from '@shared/engine/lint';
+import { lintProcedure, type LintFinding } from '@shared/engine';
 import type { ProcedureDocument } from '@shared/schema';
 
 /** The shared soundness check; the server runs it on every save and again on publish. */

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { lintProcedure } from '@shared/engine/lint';
+import { lintProcedure } from '@shared/engine';
 import { doc, ohmsReading, observation, finding, task } from '../shared/fixtures';
 import { applyEdit, historyReducer, initialHistory, UNCONNECTED } from '../../src/features/drafting/lib/edits';
 import { toFlow, fromFlow } from '../../src/features/drafting/lib/flow';

@@ -2,7 +2,7 @@
 // the pure reducer (with history), toFlow (what React Flow receives) and the live soundness
 // check, each timed over many edits; medians and 95th percentiles in milliseconds.
 import { performance } from 'node:perf_hooks';
-import { lintProcedure } from '@shared/engine/lint';
+import { lintProcedure } from '@shared/engine';
 import { procedureDocumentSchema, type ProcedureDocument, type StepInput } from '@shared/schema';
 import { historyReducer, initialHistory, type Edit, type History } from '../../src/features/drafting/lib/edits';
 import { toFlow } from '../../src/features/drafting/lib/flow';

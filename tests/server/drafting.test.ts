@@ -1,7 +1,8 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, type Client } from './harness';
 import { doc, ohmsReading, observation, finding } from '../shared/fixtures';
-import { Procedure, ProcedureVersion } from '../../server/models';
+import { randomUUID } from 'node:crypto';
+import { Diagnosis, Procedure, ProcedureVersion, User, Vehicle } from '../../server/models';
 import type { ProcedureDocument } from '@shared/schema';
 
 let env: TestEnv;
@@ -226,8 +227,8 @@ describe('roles and shops', () => {
 
 describe('the procedure list', () => {
   it('searches by title or symptom, filters by status, duplicates and archives', async () => {
-    const ids = await createDraft('Kill switch lead');
-    const found = await author.get('/api/procedures?q=kill%20switch').expect(200);
+    const ids = await createDraft('Zebra lead check');
+    const found = await author.get('/api/procedures?q=zebra%20lead').expect(200);
     expect(found.body).toEqual([expect.objectContaining({
       id: ids.procedureId, draft: expect.objectContaining({ status: 'draft' }), published: null, diagnoses: 0, lastEditedBy: 'Morgan Author',
     })]);
@@ -236,12 +237,41 @@ describe('the procedure list', () => {
 
     const copy = await author.post(`/api/procedures/${ids.procedureId}/duplicate`, {}).expect(201);
     const copied = await author.get(`/api/procedures/${copy.body.procedureId}`).expect(200);
-    expect(copied.body.title).toBe('Kill switch lead (copy)');
+    expect(copied.body.title).toBe('Zebra lead check (copy)');
 
     await author.post(`/api/procedures/${ids.procedureId}/archive`, { archived: true }).expect(200);
-    const live = await author.get('/api/procedures?q=kill').expect(200);
+    const live = await author.get('/api/procedures?q=zebra').expect(200);
     expect(live.body.map((p: { id: string }) => p.id)).toEqual([copy.body.procedureId]);
-    const archived = await author.get('/api/procedures?q=kill&archived=1').expect(200);
+    const archived = await author.get('/api/procedures?q=zebra&archived=1').expect(200);
     expect(archived.body.map((p: { id: string }) => p.id)).toEqual([ids.procedureId]);
+  });
+});
+
+describe('versions and the diagnoses that ran them', () => {
+  it('a diagnosis keeps pointing at version 1 after version 2 is published and version 1 retired, and the list counts it', async () => {
+    const ids = await createDraft('Pinned version');
+    await save(author, ids, soundDocument('Pinned version'), 1).expect(200);
+    await author.post(url(ids, '/submit')).expect(200);
+    await lead.post(url(ids, '/publish')).expect(200);
+    const techUser = await User.findOne({ where: { email: 'tech@larkspur.test' } });
+    const v1 = await ProcedureVersion.findByPk(ids.draftId);
+    const vehicle = await Vehicle.findOne({ where: { shopId: v1!.shopId } });
+    const diagnosisId = randomUUID();
+    await Diagnosis.create({
+      id: diagnosisId, shopId: v1!.shopId, procedureVersionId: v1!.id, vehicleId: vehicle!.id, technicianId: techUser!.id,
+      meterId: null, endingStepId: null, outcome: null, endedAt: null,
+    });
+
+    const next = await author.post(`/api/procedures/${ids.procedureId}/drafts`, {}).expect(201);
+    const second = { procedureId: ids.procedureId, draftId: next.body.id as string };
+    await author.post(url(second, '/submit')).expect(200);
+    await lead.post(url(second, '/publish')).expect(200);
+    await lead.post(url(ids, '/retire')).expect(200);
+
+    expect((await Diagnosis.findByPk(diagnosisId))!.procedureVersionId).toBe(ids.draftId);
+    const row = (await lead.get('/api/procedures?q=pinned').expect(200)).body[0];
+    expect(row).toMatchObject({ id: ids.procedureId, diagnoses: 1, published: { number: 2 } });
+    const retired = await tech.get(url(ids)).expect(200);
+    expect(retired.body).toMatchObject({ status: 'retired', number: 1 });
   });
 });

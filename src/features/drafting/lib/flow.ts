@@ -74,7 +74,8 @@ export function toFlow(doc: ProcedureDocument, marks: FlowMarks = {}): { nodes: 
       const onPath = (marks.path?.has(b.from) && marks.path.has(b.to)) ?? false;
       edges.push({
         id: `${b.from}:${b.handle}`, source: b.from, sourceHandle: b.handle, target: b.to, targetHandle: 'in',
-        label: b.label, data: { kind: b.kind }, animated: onPath, className: onPath ? 'sw-edge-path' : `sw-edge-${b.kind}`,
+        label: b.label, data: { kind: b.kind }, animated: onPath,
+        ...(onPath ? { style: { stroke: 'var(--color-go)', strokeWidth: 3 } } : {}),
       });
     }
   }

@@ -40,7 +40,7 @@ export function PreviewPanel({ doc, onPath, onClose }: { doc: ProcedureDocument;
         <Button variant="secondary" onClick={onClose}>Close preview</Button>
       </div>
       <p className="text-xs text-ink-soft">Preview only: nothing is recorded as a diagnosis.</p>
-      <div className="mx-auto w-[360px] max-w-full h-[640px] overflow-y-auto rounded-[28px] border-[10px] border-ink bg-panel p-4 shadow-lg"  data-testid="preview-phone">
+      <div className="mx-auto w-[360px] max-w-full h-[560px] overflow-y-auto rounded-[28px] border-[10px] border-ink bg-panel p-4 shadow-lg"  data-testid="preview-phone">
         {refusal && <p role="alert" className="mb-2 rounded-lg bg-stop-soft p-2 font-semibold text-stop">{refusal}</p>}
         {state.current && <PreviewStep key={`${state.current.id}-${log.length}`} view={state.current} remeasure={state.remeasure} onAnswer={answer} />}
         {state.ending && <PreviewEnding view={state.ending} />}

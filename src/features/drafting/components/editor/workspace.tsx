@@ -125,13 +125,19 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
         </div>
       </header>
       <div className="flex flex-wrap items-center gap-1" role="toolbar" aria-label="Editor tools">
-        <ToolButton label="Undo" shortcut="Ctrl+Z" disabled={!editable || history.past.length === 0} onClick={() => dispatch({ type: 'undo' })}>↶ Undo</ToolButton>
-        <ToolButton label="Redo" shortcut="Ctrl+Shift+Z" disabled={!editable || history.future.length === 0} onClick={() => dispatch({ type: 'redo' })}>↷ Redo</ToolButton>
-        <ToolButton label="Arrange automatically" shortcut="L" disabled={!editable} onClick={layout}>Arrange</ToolButton>
+        {editable && (
+          <>
+            <ToolButton label="Undo" shortcut="Ctrl+Z" disabled={history.past.length === 0} onClick={() => dispatch({ type: 'undo' })}>↶ Undo</ToolButton>
+            <ToolButton label="Redo" shortcut="Ctrl+Shift+Z" disabled={history.future.length === 0} onClick={() => dispatch({ type: 'redo' })}>↷ Redo</ToolButton>
+            <ToolButton label="Arrange automatically" shortcut="L" onClick={layout}>Arrange</ToolButton>
+          </>
+        )}
         <ToolButton label="Fit to view" shortcut="F" onClick={() => void fitView({ duration: 300, maxZoom: 1 })}>Fit</ToolButton>
         <ToolButton label="Preview as a technician" shortcut="P" pressed={preview} onClick={() => setPreview((p) => !p)}>Preview</ToolButton>
         {editable && <ToolButton label="Save now" disabled={!saving.dirty} onClick={() => void saving.save()}>Save</ToolButton>}
-        <span className="ml-2 text-xs text-ink-soft">Shift-drag to select several · Ctrl+C / Ctrl+V copies steps · Delete removes</span>
+        <span className="ml-2 text-xs text-ink-soft">{editable
+          ? 'Shift-drag to select several · Ctrl+C / Ctrl+V copies steps · Delete removes · L arranges · F fits · P previews'
+          : version.status === 'draft' || version.status === 'in_review' ? 'Read only: only authors edit drafts.' : 'A numbered version never changes; start a new draft from it to make changes.'}</span>
       </div>
       {saving.state.kind === 'conflict' && <ConflictNotice state={saving.state} doc={doc} onReload={onReload} />}
       {saving.state.kind === 'invalid' && <Alert title="Not saved yet: fix these fields">{saving.state.problems.map((p) => <p key={p}><code>{p}</code></p>)}</Alert>}
