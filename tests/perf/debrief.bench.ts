@@ -8,6 +8,7 @@ import { seedDemo } from '../../server/seeders/demo';
 import { seedHistory } from '../../server/seeders/history';
 import { publishFixture } from '../server/debrief.fixture';
 import { Client, DEMO_PASSWORD } from '../server/harness';
+import { hashPassword } from '../../server/lib/passwords';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -40,15 +41,22 @@ try {
   const [counts] = await q<{ d: number; s: number }>(`SELECT (SELECT count(*)::int FROM diagnoses) AS d, (SELECT count(*)::int FROM diagnosis_steps) AS s`);
   console.log(`rows: ${counts!.d} diagnoses, ${counts!.s} diagnosis steps`);
 
+  // A trainer of its own, so the benchmark signs in whatever password the shared perf database holds.
+  const email = 'bench-trainer@larkspur.test';
+  const [user] = await q<{ id: string }>(`INSERT INTO users (email, name, password_hash) VALUES ($1, 'Bench Trainer', $2)
+    ON CONFLICT (email) DO UPDATE SET password_hash = EXCLUDED.password_hash RETURNING id`, [email, await hashPassword(PASSWORD)]);
+  await q(`INSERT INTO memberships (shop_id, user_id, roles) VALUES ($1, $2, ARRAY['trainer']) ON CONFLICT DO NOTHING RETURNING id`, [shop!.id, user!.id]);
   const app = createApp(runtime.deps);
   const trainer = new Client(app);
-  const login = await trainer.signIn('trainer@larkspur.test', PASSWORD);
+  const login = await trainer.signIn(email, PASSWORD);
   if (login.status !== 200) throw new Error(`sign-in failed: ${login.status}`);
-  const procs = await q<{ id: string; title: string; n: number }>(`SELECT p.id, p.title, count(d.id)::int AS n FROM procedures p
-    JOIN procedure_versions v ON v.procedure_id = p.id JOIN diagnoses d ON d.procedure_version_id = v.id
-    WHERE p.shop_id = $1 GROUP BY 1, 2 ORDER BY n DESC LIMIT 1`, [shop!.id]);
+  // The demo "No spark" procedure (the largest of the seeded history); else the one with most steps.
+  const procs = await q<{ id: string; title: string; n: number; steps: number }>(`SELECT p.id, p.title, count(DISTINCT d.id)::int AS n,
+      (SELECT count(*)::int FROM diagnosis_steps s WHERE s.shop_id = $1 AND s.dx_version_id = ANY(array_agg(DISTINCT v.id))) AS steps
+    FROM procedures p JOIN procedure_versions v ON v.procedure_id = p.id JOIN diagnoses d ON d.procedure_version_id = v.id
+    WHERE p.shop_id = $1 GROUP BY 1, 2 ORDER BY (p.slug = 'no-spark') DESC, steps DESC LIMIT 1`, [shop!.id]);
   const proc = procs[0]!;
-  console.log(`procedure "${proc.title}": ${proc.n} diagnoses in scope`);
+  console.log(`procedure "${proc.title}": ${proc.n} diagnoses and ${proc.steps} steps in scope`);
   const endpoints = ['steps', 'findings', 'readings', 'times', 'advisor'].map((w) => `/api/debrief/analytics/${w}?procedureId=${proc.id}`);
   endpoints.push('/api/debrief/diagnoses?pageSize=25', '/api/debrief/diagnoses?flag=comeback&sort=duration&pageSize=25');
   for (const url of endpoints) {
