@@ -21,7 +21,7 @@ step "type check" npx tsc -p tsconfig.json
 step "lint" npx eslint . --max-warnings=0
 DATABASE_URL=$API_DB npx tsx scripts/migrate.ts || status=1
 step "unit and API tests" env DATABASE_URL="$API_DB" npx vitest run --reporter=default --reporter=json --outputFile=.tmp/reports/vitest.json
-step "client build" env TMPDIR="$PWD/.tmp/build" npx vite build --logLevel warn
+step "client build" env NODE_ENV=production TMPDIR="$PWD/.tmp/build" npx vite build --logLevel warn
 step "bundle budgets" env REPORT=.tmp/reports/budgets.json npx vitest run --config vitest.build.config.ts --reporter=default --reporter=json --outputFile=.tmp/reports/budgets.json
 export E2E_DATABASE_URL=$E2E_DB E2E_PORT=$(free_port 3900)
 step "end-to-end tests" env PLAYWRIGHT_JSON_OUTPUT_NAME=.tmp/reports/e2e.json npx playwright test --reporter=list,json
