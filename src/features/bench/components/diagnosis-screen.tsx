@@ -3,6 +3,8 @@ import { useParams } from 'react-router-dom';
 import { pathFigures } from '@shared/engine/figures';
 import { stepView } from '@shared/engine/step-view';
 import { formatReading } from '@shared/measure/format';
+import type { ProcedureDocument } from '@shared/schema/procedure';
+import type { PathStep } from '@shared/engine/walk';
 import { Alert, Spinner } from '../../../components/ui/card';
 import { LinkButton } from '../../../components/ui/button';
 import { useLocalDiagnosis } from '../hooks/use-local-diagnosis';
@@ -32,6 +34,38 @@ function remeasuredAt(path: readonly { stepId: string; outcome: string }[], step
   return n;
 }
 
+/** Sync state, steps done, the estimate left (path figures) and the time on this step. */
+function ProgressHeader({ title, done, left, since }: { title: string; done: number; left: number | undefined; since: number | null }) {
+  const toGo = left !== undefined && Number.isFinite(left) ? Math.max(0, Math.round(left - 1)) : null;
+  return (
+    <header className="space-y-2">
+      <p className="text-base text-ink-soft">{title}</p>
+      <div className="flex flex-wrap items-center gap-3">
+        <SyncBadge />
+        <span className="text-lg font-semibold" data-testid="progress">{done} done{toGo !== null ? ` · about ${toGo} to go` : ''}</span>
+        {since !== null && <span className="ml-auto text-lg font-semibold">Time on step <StepTimer since={since} /></span>}
+      </div>
+      <div className="h-3 overflow-hidden rounded-full bg-line" aria-hidden>
+        <div className="h-full bg-signal" style={{ width: `${Math.round((100 * done) / Math.max(1, done + (toGo ?? 0)))}%` }} />
+      </div>
+    </header>
+  );
+}
+
+/** A Formula is computed, not asked: its value shows above the step it led to. */
+function ComputedCard({ doc, path }: { doc: ProcedureDocument; path: readonly PathStep[] }) {
+  const last = [...path].reverse().find((p) => p.outcome !== 'ended');
+  const step = last?.kind === 'formula' ? doc.steps.find((s) => s.id === last.stepId) : undefined;
+  if (!step || step.kind !== 'formula' || last?.value === undefined) return null;
+  return (
+    <div className="rounded-lg border-2 border-notice bg-panel p-3" data-kind="formula" data-testid="computed">
+      <p className="text-base font-bold uppercase tracking-wide text-notice">Computed, nothing to measure</p>
+      <p className="text-xl font-bold">{step.title}: {formatReading({ value: last.value, quantity: step.quantity, significantDigits: 3 }, { unit: step.unit })}</p>
+      <p className="text-base text-ink-soft">{step.instructions}</p>
+    </div>
+  );
+}
+
 /** The Bench step screen: one step at a time, walked on the phone, synced through the outbox. */
 export function DiagnosisScreen() {
   const { id = '' } = useParams();
@@ -51,34 +85,14 @@ export function DiagnosisScreen() {
   const currentStep = currentView ? doc.steps.find((s) => s.id === currentView.id)! : null;
   const done = state.path.filter((p) => p.entryIndex !== null).length;
   const left = currentView && figures ? figures.perStep[currentView.id]?.expectedSteps : undefined;
-  const lastComputed = [...state.path].reverse().find((p) => p.outcome !== 'ended');
-  const computedStep = lastComputed?.kind === 'formula' ? doc.steps.find((s) => s.id === lastComputed.stepId) : undefined;
   const startedAt = new Date(shownAt.at).toISOString();
   const photosHere = d.diagnosis.photos.filter((p) => p.stepId === (currentView?.id ?? state.ending?.id ?? null));
 
   return (
     <div className="mx-auto max-w-xl space-y-5 pb-16">
-      <header className="space-y-2">
-        <p className="text-base text-ink-soft">{d.diagnosis.procedureTitle} · {d.diagnosis.vehicleLabel}</p>
-        <div className="flex flex-wrap items-center gap-3">
-          <SyncBadge />
-          <span className="text-lg font-semibold" data-testid="progress">
-            {done} done{left !== undefined && Number.isFinite(left) ? ` · about ${Math.max(0, Math.round(left - 1))} to go` : ''}
-          </span>
-          {(currentView || state.ending) && <span className="ml-auto text-lg font-semibold">Time on step <StepTimer since={shownAt.at} /></span>}
-        </div>
-        <div className="h-3 overflow-hidden rounded-full bg-line" aria-hidden>
-          <div className="h-full bg-signal" style={{ width: `${Math.round((100 * done) / Math.max(1, done + (left ?? 0)))}%` }} />
-        </div>
-      </header>
+      <ProgressHeader title={`${d.diagnosis.procedureTitle} · ${d.diagnosis.vehicleLabel}`} done={done} left={left} since={currentView || state.ending ? shownAt.at : null} />
 
-      {computedStep && computedStep.kind === 'formula' && lastComputed?.value !== undefined && !editPath && (
-        <div className="rounded-lg border-2 border-notice bg-panel p-3" data-kind="formula" data-testid="computed">
-          <p className="text-base font-bold uppercase tracking-wide text-notice">Computed, nothing to measure</p>
-          <p className="text-xl font-bold">{computedStep.title}: {formatReading({ value: lastComputed.value, quantity: computedStep.quantity, significantDigits: 3 }, { unit: computedStep.unit })}</p>
-          <p className="text-base text-ink-soft">{computedStep.instructions}</p>
-        </div>
-      )}
+      {!editPath && <ComputedCard doc={doc} path={state.path} />}
 
       {editPath && <Alert tone="edge" title="Changing an earlier answer">The answers after it will be kept in the record as changed. <button type="button" className="underline min-h-12" onClick={() => setEditing(null)}>Keep the answer</button></Alert>}
 

@@ -2,14 +2,13 @@ import { useState, type FormEvent } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, ApiError } from '../../../lib/api-client';
-import { commitLocal, saveVersion } from '../../../lib/offline/db';
-import { flushOutbox } from '../../../lib/offline/outbox';
 import { PageHeader, Alert } from '../../../components/ui/card';
 import { Button } from '../../../components/ui/button';
 import { Field, Input, Select, Textarea } from '../../../components/ui/field';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
-import type { BenchVersion, Vehicle } from '../api/types';
+import type { Meter, Vehicle } from '../api/types';
+import { startDiagnosis, type StartForm } from '../lib/start';
 
 const IGNITION = [['', 'Any ignition'], ['magneto-cdi', 'Magneto CDI'], ['battery-cdi', 'Battery CDI'], ['magneto-inductive', 'Magneto inductive'], ['battery-inductive', 'Battery inductive']] as const;
 
@@ -34,45 +33,66 @@ function QuickVehicle({ onAdded }: { onAdded(v: Vehicle): void }) {
   );
 }
 
+type SetField = (k: keyof StartForm) => (e: { target: { value: string } }) => void;
+
+function ProcedureFieldset({ slug, set }: { slug: string; set: SetField }) {
+  const [filter, setFilter] = useState({ symptom: '', ignitionSystem: '' });
+  const procedures = useQuery(benchQueries.procedures(filter));
+  return (
+    <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
+      <legend className="px-1 text-lg font-bold">Procedure</legend>
+      <Field label="Symptom"><Input value={filter.symptom} onChange={(e) => setFilter({ ...filter, symptom: e.target.value })} placeholder="e.g. no spark" /></Field>
+      <Field label="Ignition system"><Select value={filter.ignitionSystem} onChange={(e) => setFilter({ ...filter, ignitionSystem: e.target.value })}>{IGNITION.map(([v, l]) => <option key={v} value={v}>{l}</option>)}</Select></Field>
+      <div role="radiogroup" aria-label="Published procedures" className="grid gap-2">
+        {procedures.data?.map((p) => (
+          <label key={p.slug} className="flex min-h-14 items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 text-lg font-semibold has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
+            <input type="radio" name="procedure" className="h-6 w-6" value={p.slug} checked={slug === p.slug} onChange={set('slug')} />
+            <span>{p.title} <span className="block text-base font-normal text-ink-soft">{p.symptom} · version {p.number}</span></span>
+          </label>
+        ))}
+        {procedures.data?.length === 0 && <p>No published procedure matches.</p>}
+      </div>
+    </fieldset>
+  );
+}
+
+function ConditionsFieldset({ form, meterId, meters, set }: { form: StartForm; meterId: string; meters: Meter[] | undefined; set: SetField }) {
+  return (
+    <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
+      <legend className="px-1 text-lg font-bold">Complaint and conditions</legend>
+      <Field label="Complaint in the customer's words"><Textarea required value={form.complaint} onChange={set('complaint')} rows={3} /></Field>
+      <Field label="Engine"><Select value={form.engine} onChange={set('engine')}><option value="cold">Cold</option><option value="hot">Hot</option></Select></Field>
+      <Field label="Ambient temperature (°C)"><Input inputMode="decimal" value={form.ambientC} onChange={set('ambientC')} /></Field>
+      <Field label="Starting method"><Select value={form.startingMethod} onChange={set('startingMethod')}>
+        <option value="kick">Kick</option><option value="pull">Pull cord</option><option value="electric">Electric start</option><option value="push">Push start</option>
+      </Select></Field>
+      <Field label="Battery voltage (V), where there is a battery"><Input inputMode="decimal" value={form.batteryVolts} onChange={set('batteryVolts')} /></Field>
+      <Field label="Meter used"><Select value={meterId} onChange={set('meterId')}>{meters?.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</Select></Field>
+    </fieldset>
+  );
+}
+
 /** Start a diagnosis: procedure, machine, complaint, conditions and the meter used. */
 export function StartPage() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const qc = useQueryClient();
-  const [filter, setFilter] = useState({ symptom: '', ignitionSystem: '' });
-  const procedures = useQuery(benchQueries.procedures(filter));
   const vehicles = useQuery(benchQueries.vehicles());
   const meters = useQuery(benchQueries.meters());
-  const [form, setForm] = useState({
+  const [form, setForm] = useState<StartForm>({
     slug: params.get('procedure') ?? '', vehicleId: params.get('vehicle') ?? '', meterId: '', complaint: '',
     engine: 'cold', ambientC: '20', startingMethod: 'kick', batteryVolts: '',
   });
   const [adding, setAdding] = useState(false);
   const [error, setError] = useState<string | null>(null);
-  const set = (k: keyof typeof form) => (e: { target: { value: string } }) => setForm({ ...form, [k]: e.target.value });
+  const set: SetField = (k) => (e) => setForm({ ...form, [k]: e.target.value });
   const meterId = form.meterId || meters.data?.[0]?.id || '';
 
   const start = async (e: FormEvent) => {
     e.preventDefault();
     setError(null);
     try {
-      const version = await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(form.slug)}`);
-      await saveVersion(version);
-      const vehicle = vehicles.data?.find((v) => v.id === form.vehicleId);
-      const meter = meters.data?.find((m) => m.id === meterId);
-      const id = crypto.randomUUID();
-      const now = new Date().toISOString();
-      const body = {
-        id, procedureVersionId: version.id, vehicleId: form.vehicleId, meterId: meter?.id ?? null, complaint: form.complaint, startedAt: now,
-        conditions: { engine: form.engine, ambientC: Number(form.ambientC.replace(',', '.')), startingMethod: form.startingMethod, batteryVolts: form.batteryVolts ? Number(form.batteryVolts.replace(',', '.')) : null },
-      };
-      // Checked by the server now, while there is signal, so a typo does not block the outbox later.
-      await api.post('/api/diagnoses', body);
-      await commitLocal({
-        id, versionId: version.id, procedureTitle: version.title, vehicleLabel: vehicle?.label ?? '', meterEntries: meter?.spec.entries ?? [],
-        startedAt: now, rows: [], photos: [], status: 'active', updatedAt: now,
-      }, []);
-      void flushOutbox();
+      const id = await startDiagnosis(form, vehicles.data?.find((v) => v.id === form.vehicleId), meters.data?.find((m) => m.id === meterId));
       navigate(`/bench/d/${id}`);
     } catch (err) {
       setError(err instanceof ApiError ? err.message + (err.issues.length ? ` (${err.issues.map((i) => i.message).join('; ')})` : '') : 'Could not start the diagnosis.');
@@ -82,20 +102,7 @@ export function StartPage() {
   return (
     <form onSubmit={(e) => void start(e)} className="mx-auto max-w-xl space-y-4 pb-16">
       <PageHeader title="Start a diagnosis" />
-      <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
-        <legend className="px-1 text-lg font-bold">Procedure</legend>
-        <Field label="Symptom"><Input value={filter.symptom} onChange={(e) => setFilter({ ...filter, symptom: e.target.value })} placeholder="e.g. no spark" /></Field>
-        <Field label="Ignition system"><Select value={filter.ignitionSystem} onChange={(e) => setFilter({ ...filter, ignitionSystem: e.target.value })}>{IGNITION.map(([v, l]) => <option key={v} value={v}>{l}</option>)}</Select></Field>
-        <div role="radiogroup" aria-label="Published procedures" className="grid gap-2">
-          {procedures.data?.map((p) => (
-            <label key={p.slug} className="flex min-h-14 items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 text-lg font-semibold has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
-              <input type="radio" name="procedure" className="h-6 w-6" value={p.slug} checked={form.slug === p.slug} onChange={set('slug')} />
-              <span>{p.title} <span className="block text-base font-normal text-ink-soft">{p.symptom} · version {p.number}</span></span>
-            </label>
-          ))}
-          {procedures.data?.length === 0 && <p>No published procedure matches.</p>}
-        </div>
-      </fieldset>
+      <ProcedureFieldset slug={form.slug} set={set} />
       <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
         <legend className="px-1 text-lg font-bold">Machine</legend>
         <Field label="Machine"><Select value={form.vehicleId} onChange={set('vehicleId')} required>
@@ -105,17 +112,7 @@ export function StartPage() {
         {adding ? <QuickVehicle onAdded={(v) => { void qc.invalidateQueries({ queryKey: benchQueries.vehicles().queryKey }); setForm({ ...form, vehicleId: v.id }); setAdding(false); }} />
           : <Button variant="secondary" className="min-h-12 w-full" onClick={() => setAdding(true)}>Quickly add a machine</Button>}
       </fieldset>
-      <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
-        <legend className="px-1 text-lg font-bold">Complaint and conditions</legend>
-        <Field label="Complaint in the customer's words"><Textarea required value={form.complaint} onChange={set('complaint')} rows={3} /></Field>
-        <Field label="Engine"><Select value={form.engine} onChange={set('engine')}><option value="cold">Cold</option><option value="hot">Hot</option></Select></Field>
-        <Field label="Ambient temperature (°C)"><Input inputMode="decimal" value={form.ambientC} onChange={set('ambientC')} /></Field>
-        <Field label="Starting method"><Select value={form.startingMethod} onChange={set('startingMethod')}>
-          <option value="kick">Kick</option><option value="pull">Pull cord</option><option value="electric">Electric start</option><option value="push">Push start</option>
-        </Select></Field>
-        <Field label="Battery voltage (V), where there is a battery"><Input inputMode="decimal" value={form.batteryVolts} onChange={set('batteryVolts')} /></Field>
-        <Field label="Meter used"><Select value={meterId} onChange={set('meterId')}>{meters.data?.map((m) => <option key={m.id} value={m.id}>{m.name}</option>)}</Select></Field>
-      </fieldset>
+      <ConditionsFieldset form={form} meterId={meterId} meters={meters.data} set={set} />
       <LimitsNotice />
       {error && <Alert title="Not started">{error}</Alert>}
       <Button type="submit" size="lg" className="min-h-16 w-full text-xl" disabled={!form.slug || !form.vehicleId || !form.complaint.trim()}>Start the diagnosis</Button>
