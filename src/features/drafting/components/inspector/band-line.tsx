@@ -3,6 +3,8 @@ import type { Band } from '@shared/schema';
 
 const W = 320;
 const ROW = 16;
+/** Room on the left for the band names; the number line uses the rest. */
+const LABEL = 78;
 
 /**
  * The bands on a number line, one row each, with gaps (red) and overlaps (violet) drawn on the
@@ -14,7 +16,8 @@ export function BandLine({ bands, quantity, unit }: { bands: Band[]; quantity: Q
   const lo = ends.length ? Math.min(...ends) : 0;
   const hi = ends.length ? Math.max(...ends) : 1;
   const pad = (hi - lo || Math.abs(hi) || 1) * 0.25;
-  const x = (v: number | undefined, side: 'lo' | 'hi') => (v === undefined ? (side === 'lo' ? 0 : W) : ((v - (lo - pad)) / (hi - lo + 2 * pad)) * W);
+  const x = (v: number | undefined, side: 'lo' | 'hi') =>
+    LABEL + (v === undefined ? (side === 'lo' ? 0 : W - LABEL) : ((v - (lo - pad)) / (hi - lo + 2 * pad)) * (W - LABEL));
   const height = (bands.length + 1) * ROW + 22;
   const marks = [...new Set(ends)].sort((a, b) => a - b);
   return (
@@ -23,14 +26,15 @@ export function BandLine({ bands, quantity, unit }: { bands: Band[]; quantity: Q
         {bands.map((b, i) => (
           <g key={b.id}>
             <rect x={x(b.lower?.value, 'lo')} y={i * ROW + 2} width={Math.max(2, x(b.upper?.value, 'hi') - x(b.lower?.value, 'lo'))} height={ROW - 4} rx={3} fill="var(--color-signal-soft)" stroke="var(--color-signal)" />
-            <text x={4} y={i * ROW + 12} fontSize={10} fill="var(--color-ink)">{b.label}</text>
+            <text x={LABEL - 4} y={i * ROW + 12} fontSize={10} textAnchor="end" fill="var(--color-ink)">{b.label.length > 14 ? `${b.label.slice(0, 13)}…` : b.label}</text>
           </g>
         ))}
         {problems.map((p, i) => p.kind === 'empty' ? null : (
           <rect key={i} x={x(p.lower?.value, 'lo')} y={bands.length * ROW + 2} width={Math.max(3, x(p.upper?.value, 'hi') - x(p.lower?.value, 'lo'))} height={ROW - 4}
             fill={p.kind === 'gap' ? 'var(--color-stop)' : 'var(--color-edge)'} data-testid={`band-${p.kind}`} />
         ))}
-        <line x1={0} x2={W} y1={(bands.length + 1) * ROW} y2={(bands.length + 1) * ROW} stroke="var(--color-ink-soft)" />
+        <text x={LABEL - 4} y={bands.length * ROW + 12} fontSize={10} textAnchor="end" fill="var(--color-ink-soft)">gaps/overlaps</text>
+        <line x1={LABEL} x2={W} y1={(bands.length + 1) * ROW} y2={(bands.length + 1) * ROW} stroke="var(--color-ink-soft)" />
         {marks.map((m) => (
           <g key={m}>
             <line x1={x(m, 'lo')} x2={x(m, 'lo')} y1={(bands.length + 1) * ROW - 3} y2={(bands.length + 1) * ROW + 3} stroke="var(--color-ink)" />

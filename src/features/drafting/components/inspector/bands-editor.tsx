@@ -10,21 +10,22 @@ import { BandLine } from './band-line';
 function EndInput({ end, factor, side, onChange, label }: { end: BandEnd | undefined; factor: number; side: 'lower' | 'upper'; onChange: (e: BandEnd | undefined) => void; label: string }) {
   const open = end === undefined;
   return (
-    <div className="flex items-center gap-1">
+    <div className="flex items-center gap-1 text-sm">
+      <span className="w-8 text-ink-soft">{side === 'lower' ? 'from' : 'to'}</span>
       {open ? (
-        <span className="w-20 text-center text-ink-soft">{side === 'lower' ? '−∞' : '+∞'}</span>
+        <span className="w-[8.5rem] text-center text-ink-soft">{side === 'lower' ? '−∞' : '+∞'}</span>
       ) : (
         <>
           <select aria-label={`${label}: ${side} end included`} value={end.inclusive ? 'in' : 'out'} className="min-h-11 rounded border-2 border-line bg-panel px-1"
             onChange={(e) => onChange({ ...end, inclusive: e.target.value === 'in' })}>
             {side === 'lower' ? <><option value="in">≥</option><option value="out">&gt;</option></> : <><option value="in">≤</option><option value="out">&lt;</option></>}
           </select>
-          <NumberInput label={`${label}: ${side} end`} value={end.value} factor={factor} onCommit={(v) => v !== undefined && onChange({ ...end, value: v })} className="w-20" />
+          <NumberInput label={`${label}: ${side} end`} value={end.value} factor={factor} onCommit={(v) => v !== undefined && onChange({ ...end, value: v })} className="w-24" />
         </>
       )}
-      <label className="flex items-center gap-1 text-xs text-ink-soft">
+      <label className="flex items-center gap-1 whitespace-nowrap text-xs text-ink-soft">
         <input type="checkbox" checked={open} aria-label={`${label}: no ${side} end`} onChange={(e) => onChange(e.target.checked ? undefined : { value: 0, inclusive: side === 'lower' })} />
-        open
+        no end
       </label>
     </div>
   );
@@ -51,9 +52,8 @@ export function BandsEditor({ bands, factor, quantity, unit, stepIds, disabled, 
             <Input aria-label={`Band ${i + 1} label`} value={b.label} onChange={(e) => set(i, { label: e.target.value })} />
             <Button variant="ghost" aria-label={`Remove band ${b.label}`} onClick={() => onChange(bands.filter((_, j) => j !== i))}>✕</Button>
           </div>
-          <div className="flex flex-wrap items-center gap-2">
+          <div className="flex flex-col gap-1">
             <EndInput end={b.lower} factor={factor} side="lower" label={`Band ${b.label}`} onChange={(e) => set(i, { lower: e })} />
-            <span aria-hidden>…</span>
             <EndInput end={b.upper} factor={factor} side="upper" label={`Band ${b.label}`} onChange={(e) => set(i, { upper: e })} />
           </div>
           <TargetSelect label={`Band ${b.label} goes to`} value={b.next} stepIds={stepIds} onChange={(next) => set(i, { next })} />

@@ -18,13 +18,14 @@ export function NumberInput({ value, factor = 1, onCommit, label, allowEmpty = f
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [value, factor]);
   const bad = text.trim() === '' ? !allowEmpty : !Number.isFinite(Number(text.replace(',', '.')));
+  // the Input primitive is full width; the wrapper decides how wide the number is
   return (
+    <span className={`inline-block shrink-0 ${className ?? 'w-28'}`}>
     <Input
       inputMode="decimal"
       aria-label={label}
       aria-invalid={bad || undefined}
       value={text}
-      className={className ?? 'w-28'}
       onChange={(e) => {
         setText(e.target.value);
         const t = e.target.value.trim().replace(',', '.');
@@ -32,5 +33,6 @@ export function NumberInput({ value, factor = 1, onCommit, label, allowEmpty = f
         else if (t !== '' && Number.isFinite(Number(t))) onCommit(Number(t) * factor);
       }}
     />
+    </span>
   );
 }
