@@ -25,6 +25,8 @@ const EnvSchema = z.object({
   SERVE_CLIENT: bool.default(true),
   LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
   ABANDON_AFTER_HOURS: z.coerce.number().positive().default(24),
+  /** invented diagnoses seeded into an empty demo shop so that Debrief is never empty; 0 for none */
+  DEMO_HISTORY: z.coerce.number().int().min(0).max(100_000).default(300),
 });
 
 export type Config = z.infer<typeof EnvSchema> & { appUrl: string };

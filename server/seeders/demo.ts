@@ -84,6 +84,8 @@ export async function seedDemo(deps: AppDeps): Promise<{ shopName: string; accou
     await seedDemoProcedures(shop.id, transaction, lead?.id ?? null);
   });
   // A few hundred invented diagnoses so Debrief is never empty on first run; tests seed their own.
-  if (deps.config.NODE_ENV !== 'test') await seedHistoryIfEmpty(deps, (await Shop.findOne({ where: { slug: DEMO_SHOP.slug } }))!.id, 300);
+  if (deps.config.DEMO_HISTORY > 0) {
+    await seedHistoryIfEmpty(deps, (await Shop.findOne({ where: { slug: DEMO_SHOP.slug } }))!.id, deps.config.DEMO_HISTORY);
+  }
   return { shopName: DEMO_SHOP.name, accounts: DEMO_ACCOUNTS.map(({ email, roles }) => ({ email, roles })) };
 }

@@ -38,6 +38,7 @@ export async function startTestApp(overrides: Record<string, string> = {}): Prom
     LOCAL_FAKES: '1',
     DATA_DIR: mkdtempSync(path.join(tmpdir(), 'sw-test-')),
     LOGIN_RATE_LIMIT: '1000',
+    DEMO_HISTORY: '0',
     ...overrides,
   });
   const runtime = await startRuntime(config);
