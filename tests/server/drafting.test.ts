@@ -181,6 +181,16 @@ describe('import and export', () => {
     expect({ procedures: await Procedure.count(), versions: await ProcedureVersion.count() }).toEqual(before);
   });
 
+  it('a file where two steps share an id is refused, naming the id, and nothing is stored', async () => {
+    const before = await Procedure.count();
+    const d = soundDocument('Twins');
+    d.steps.push({ ...d.steps[3]! });
+    const res = await author.post('/api/procedures/import', { file: { format: 'sparkwright-procedure', document: d } });
+    expect(res.status).toBe(422);
+    expect(expectEnvelope(res.body).issues).toEqual([expect.objectContaining({ message: expect.stringContaining('"openCoil" is used more than once') })]);
+    expect(await Procedure.count()).toBe(before);
+  });
+
   it('a file from a newer schema version is refused with what to do', async () => {
     const res = await author.post('/api/procedures/import', { file: { ...soundDocument(), schemaVersion: 99 } });
     expect(res.status).toBe(422);
@@ -197,6 +207,8 @@ describe('roles and shops', () => {
     await author.post(url(ids, '/submit')).expect(200);
     expect((await author.post(url(ids, '/publish'))).status).toBe(403);
     expect((await tech.post(url(ids, '/retire'))).status).toBe(403);
+    expect((await tech.post(url(ids, '/comments'), { body: 'Looks fine' })).status).toBe(403);
+    expect((await trainer.post(`/api/procedures/${ids.procedureId}/archive`, { archived: true })).status).toBe(403);
   });
 
   it('technicians and trainers do not see drafts at all: the draft and a never-published procedure are 404 to them', async () => {
