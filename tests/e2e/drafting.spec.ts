@@ -170,3 +170,64 @@ test('an author builds a procedure from the palette, fixes a band gap, previews 
   await shot(lead, 'drafting-published');
   await leadContext.close();
 });
+
+async function apiPut<T>(page: Page, url: string, body: unknown): Promise<T> {
+  return page.evaluate(async ({ url, body }) => {
+    const { token } = await (await fetch('/api/auth/csrf')).json() as { token: string };
+    const res = await fetch(url, { method: 'PUT', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': token }, body: JSON.stringify(body) });
+    if (!res.ok) throw new Error(`${url}: ${res.status} ${await res.text()}`);
+    return res.json();
+  }, { url, body }) as Promise<T>;
+}
+
+test('a lead reviewing version 2 sees what changed since version 1, on the canvas and as a list', async ({ page, browser }) => {
+  test.setTimeout(120_000);
+  const source = DEMO_PROCEDURES.find((p) => p.slug === 'will-not-stop')!.document;
+  await signIn(page, 'author');
+  const created = await apiPost<{ procedureId: string; draftId: string }>(page, '/api/procedures/import', { file: source, title: `Review diff ${Date.now()}` });
+  const v = (id: string) => `/api/procedures/${created.procedureId}/versions/${id}`;
+  await apiPost(page, `${v(created.draftId)}/submit`, {});
+  const leadContext = await browser.newContext({ viewport: { width: 1600, height: 1000 } });
+  const lead = await leadContext.newPage();
+  await signIn(lead, 'lead');
+  await apiPost(lead, `${v(created.draftId)}/publish`, {});
+  const draft = await apiPost<{ id: string; lockVersion: number; document: typeof source }>(page, `/api/procedures/${created.procedureId}/drafts`, {});
+  const changed = { ...draft.document, steps: draft.document.steps.map((s, i) => (i === 1 ? { ...s, title: `${s.title} (checked twice)` } : s)) };
+  await apiPut(page, v(draft.id), { document: changed, lockVersion: draft.lockVersion });
+  await apiPost(page, `${v(draft.id)}/submit`, {});
+
+  await lead.goto(`/drafting/${created.procedureId}/versions/${draft.id}`);
+  const changedId = source.steps[1]!.id;
+  await expect(lead.getByTestId('diff-list')).toContainText('Changes since version 1');
+  await expect(lead.getByTestId('diff-list')).toContainText(`changed (title)${changedId}`);
+  await expect(node(lead, changedId)).toContainText('changed');
+  await shot(lead, 'drafting-review-diff');
+  await leadContext.close();
+});
+
+test('when two authors edit the same draft, the later save is refused with who changed it, and the copy can be kept', async ({ page, browser }) => {
+  test.setTimeout(120_000);
+  await signIn(page, 'author');
+  const created = await apiPost<{ procedureId: string; draftId: string }>(page, '/api/procedures', { meta: { title: `Two tabs ${Date.now()}`, symptom: 'No spark', ignitionSystem: 'magneto-cdi' } });
+  const at = `/drafting/${created.procedureId}/versions/${created.draftId}`;
+  const otherContext = await browser.newContext({ viewport: { width: 1600, height: 1000 } });
+  const other = await otherContext.newPage();
+  await signIn(other, 'author');
+  await page.goto(at);
+  await other.goto(at);
+  await expect(node(page, 'prepare')).toBeVisible();
+  await expect(node(other, 'prepare')).toBeVisible();
+
+  await other.getByTestId('palette-finding').click();
+  await other.getByRole('button', { name: 'Save now' }).click();
+  await expect(other.getByTestId('save-status')).toContainText('Saved');
+
+  await page.getByTestId('palette-handoff').click();
+  await page.getByRole('button', { name: 'Save now' }).click();
+  await expect(page.getByText(/Morgan Author changed this draft at/)).toBeVisible();
+  await shot(page, 'drafting-conflict');
+  await page.getByRole('button', { name: 'Keep my copy' }).click();
+  await expect(page.getByRole('heading', { name: /\(my copy\)/ })).toBeVisible();
+  await expect(node(page, 'handoff1')).toBeVisible();
+  await otherContext.close();
+});
