@@ -45,17 +45,25 @@ export function createApp(deps: AppDeps): Express {
   app.use(requestId);
   app.use(helmet({ contentSecurityPolicy, crossOriginEmbedderPolicy: false }));
 
+  // Static files come before the session: they need none, and a session cookie refreshed on an
+  // asset response that raced a sign-in would put the old session back in the browser.
+  const dist = path.resolve('dist');
+  const hasClient = deps.config.SERVE_CLIENT && existsSync(path.join(dist, 'index.html'));
+  if (hasClient) app.use(express.static(dist, { index: false, maxAge: '1h', setHeaders: noCacheForShell }));
+
   const PgStore = connectPgSimple(session);
-  const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 5 });
+  const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 10 });
   app.locals.sessionPool = pool;
   app.use(
     session({
       name: 'sw.sid',
-      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15 }),
+      // No touch on every request: a session lasts one shift from sign-in, and each request
+      // costs one session read instead of a read and a write.
+      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15, disableTouch: true }),
       secret: deps.config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      rolling: false,
       cookie: {
         httpOnly: true,
         sameSite: 'lax',
@@ -73,15 +81,12 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api', apiRouter(deps, csrf.generateToken));
   app.use('/api', apiNotFound);
 
-  if (deps.config.SERVE_CLIENT) serveClient(app);
+  if (hasClient) serveClientRoutes(app, dist);
   app.use(errorHandler(deps.log));
   return app;
 }
 
-function serveClient(app: Express): void {
-  const dist = path.resolve('dist');
-  if (!existsSync(path.join(dist, 'index.html'))) return;
-  app.use(express.static(dist, { index: false, maxAge: '1h', setHeaders: noCacheForShell }));
+function serveClientRoutes(app: Express, dist: string): void {
   // every non-API path is a client route
   app.get('/{*splat}', (_req, res) => {
     res.setHeader('Cache-Control', 'no-cache');

@@ -20,11 +20,12 @@ export function configurePassport(): void {
         .catch(done);
     }),
   );
-  passport.serializeUser((user, done) => done(null, user.id));
-  passport.deserializeUser((id: string, done) => {
-    User.findByPk(id)
-      .then((user) => done(null, user ? toSessionUser(user) : false))
-      .catch(done);
+  // The session keeps who signed in (id, e-mail, name), so a request costs no user lookup; the
+  // roles are read fresh from the membership on every request, so a change applies at once.
+  passport.serializeUser((user, done) => done(null, { id: user.id, email: user.email, name: user.name }));
+  passport.deserializeUser((stored: SessionUser | string, done) => {
+    if (typeof stored === 'object' && stored && typeof stored.id === 'string') return done(null, stored);
+    done(null, false);
   });
 }
 

@@ -57,7 +57,7 @@ export async function resetPassword(deps: AppDeps, raw: string, password: string
     await audit({ shopId: null, userId: reset.userId, action: 'password.reset', entity: 'user', entityId: reset.userId }, transaction);
   });
   // sign the person out everywhere: their sessions are keyed by user id inside the JSON
-  await deps.sequelize.query(`DELETE FROM "session" WHERE sess->'passport'->>'user' IN (SELECT user_id::text FROM password_resets WHERE token_hash = :h)`,
+  await deps.sequelize.query(`DELETE FROM "session" WHERE sess->'passport'->'user'->>'id' IN (SELECT user_id::text FROM password_resets WHERE token_hash = :h)`,
     { replacements: { h: hashToken(raw) } });
 }
 

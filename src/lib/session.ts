@@ -40,6 +40,9 @@ export function useSignOut(): () => Promise<void> {
     try {
       await api.post('/api/auth/logout');
     } finally {
+      // the service worker keeps the last /api/auth/me answer for offline reloads; a shared
+      // phone must not show the previous person as signed in
+      if (typeof caches !== 'undefined') await caches.delete('sw-session').catch(() => false);
       setCsrfToken(null);
       qc.clear();
       qc.setQueryData(meQuery.queryKey, null);

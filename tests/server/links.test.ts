@@ -79,6 +79,17 @@ describe('password reset', () => {
     expect((await new Client(env.app).signIn('author@larkspur.test', 'a-brand-new-password')).status).toBe(200);
   });
 
+  it("a password reset signs the person out of every other session", async () => {
+    const elsewhere = await signInAs(env.app, 'lead');
+    await elsewhere.get('/api/auth/me').expect(200);
+    const c = new Client(env.app);
+    await c.fetchCsrf();
+    await c.post('/api/auth/password/forgot', { email: 'lead@larkspur.test' }).expect(202);
+    const mail = await env.smtp.waitFor((m) => m.to.includes('lead@larkspur.test') && m.subject.includes('Reset'));
+    await c.post('/api/auth/password/reset', { token: tokenIn(mail.text, 'reset-password'), password: 'lead-new-password-1' }).expect(204);
+    await elsewhere.get('/api/auth/me').expect(401);
+  });
+
   it('an unknown e-mail gets the same answer and no mail', async () => {
     const c = new Client(env.app);
     await c.fetchCsrf();
