@@ -55,7 +55,7 @@ export function RecordPage() {
       <p className="text-lg"><strong>Complaint:</strong> {r.complaint}</p>
       <ol className="space-y-2" aria-label="Timeline">
         {r.steps.map((s) => (
-          <li key={s.id} className={`rounded-lg border border-line bg-panel p-3 break-inside-avoid ${s.superseded ? 'opacity-70' : ''}`}>
+          <li key={s.id} className={`rounded-lg border border-line p-3 break-inside-avoid ${s.superseded ? 'border-dashed bg-paper' : 'bg-panel'}`}>
             <div className="flex flex-wrap items-center gap-2">
               <span className="font-bold">{s.seq}. {s.shown.title ?? s.stepId}</span>
               {s.verdict && <Badge tone={VERDICT[s.verdict]?.[1] ?? 'edge'}>{VERDICT[s.verdict]?.[0]}</Badge>}

@@ -46,7 +46,7 @@ export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay;
         const answer = answerLabel(replay.document, s);
         const photos = replay.photos.filter((p) => p.stepId === s.stepId);
         return (
-          <li key={s.id} className={cx('rounded-lg border bg-panel p-3', s.stepId === selected ? 'border-edge ring-2 ring-edge/40' : 'border-line', s.superseded && 'opacity-70')}>
+          <li key={s.id} className={cx('rounded-lg border p-3', s.stepId === selected ? 'border-edge ring-2 ring-edge/40' : 'border-line', s.superseded ? 'border-dashed bg-paper' : 'bg-panel')}>
             <button type="button" className="flex w-full flex-wrap items-baseline justify-between gap-2 text-left" onClick={() => onSelect(s.stepId)}>
               <span className={cx('font-semibold', s.superseded && 'line-through')}>{s.seq}. {title}</span>
               <span className="text-sm tabular-nums text-ink-soft">{formatDuration(s.seconds)}</span>
