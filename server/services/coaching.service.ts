@@ -5,7 +5,8 @@ import { audit } from './audit';
 import { findDiagnosisRow } from './debrief-diagnoses.service';
 import { parseDocument, type Sql } from './debrief-scope';
 
-export interface CoachingNoteDto { id: string; diagnosisId: string; stepId: string | null; authorName: string; body: string; createdAt: string }
+export type { CoachingNoteDto } from '@shared/stats/debrief-answers';
+import type { CoachingNoteDto } from '@shared/stats/debrief-answers';
 
 export function noteDto(r: Record<string, unknown>): CoachingNoteDto {
   return {

@@ -1,16 +1,8 @@
 import type { ShopContext } from '../auth/context';
 import { requireAnalyticsReader, parseDocument, type Sql } from './debrief-scope';
-import type { ProcedureDocument } from '@shared/schema';
+import type { DebriefProcedure } from '@shared/stats/debrief-answers';
 
-export interface DebriefProcedure {
-  id: string;
-  slug: string;
-  title: string;
-  diagnoses: number;
-  versions: { id: string; number: number; status: string; publishedAt: string | null; diagnoses: number }[];
-  /** The latest numbered version's document, for the graph and the step names. */
-  document: ProcedureDocument;
-}
+export type { DebriefProcedure } from '@shared/stats/debrief-answers';
 
 /** Procedures of the shop that have a numbered version, with diagnosis counts per version. */
 export async function debriefProcedures(sql: Sql, ctx: ShopContext): Promise<DebriefProcedure[]> {

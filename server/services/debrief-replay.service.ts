@@ -1,38 +1,10 @@
 import type { ShopContext } from '../auth/context';
-import type { ProcedureDocument } from '@shared/schema';
-import type { DiagnosisRow } from '@shared/stats/debrief-schema';
 import { findDiagnosisRow } from './debrief-diagnoses.service';
-import { notesOf, type CoachingNoteDto } from './coaching.service';
+import { notesOf } from './coaching.service';
+import type { Replay, ReplayStep } from '@shared/stats/debrief-answers';
 import { parseDocument, type Sql } from './debrief-scope';
 
-export interface ReplayStep {
-  id: string;
-  seq: number;
-  stepId: string;
-  kind: string;
-  shown: Record<string, unknown>;
-  entered: string | null;
-  value: number | null;
-  unit: string | null;
-  verdict: string | null;
-  bandId: string | null;
-  answerId: string | null;
-  superseded: boolean;
-  note: string;
-  startedAt: string;
-  answeredAt: string;
-  seconds: number;
-}
-
-export interface Replay {
-  diagnosis: DiagnosisRow & { complaint: string; conditions: Record<string, unknown>; outcome: Record<string, unknown> | null };
-  document: ProcedureDocument;
-  steps: ReplayStep[];
-  /** Step ids on the path taken (superseded answers left out), ending included. */
-  path: string[];
-  photos: { id: string; stepId: string | null; contentType: string; createdAt: string }[];
-  notes: CoachingNoteDto[];
-}
+export type { ReplayStep, Replay } from '@shared/stats/debrief-answers';
 
 const iso = (v: unknown) => new Date(v as string).toISOString();
 
