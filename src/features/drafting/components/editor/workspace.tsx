@@ -1,6 +1,6 @@
-import { useCallback, useMemo, useReducer, useState } from 'react';
+import { useCallback, useEffect, useMemo, useReducer, useState } from 'react';
 import { useReactFlow } from '@xyflow/react';
-import { lintProcedure, pathFigures, type LintFinding } from '@shared/engine';
+import { lintProcedure, pathFigures, type LintFinding, type LintReport } from '@shared/engine';
 import type { StepKind } from '@shared/schema';
 import { Alert } from '../../../../components/ui/card';
 import { cx } from '../../../../components/ui/cx';
@@ -28,6 +28,8 @@ import { ConflictNotice, VersionActions } from './version-actions';
 
 type Tab = 'step' | 'check' | 'review';
 
+const UNCHECKED: LintReport = { findings: [], errorCount: 0, warningCount: 0, ok: true };
+
 interface Props {
   ids: VersionIds;
   version: VersionDetail;
@@ -49,9 +51,12 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
   const saving = useDraftSaving(ids, doc, version, editable);
   const { fitView, getViewport } = useReactFlow();
 
+  // the canvas paints first; the soundness check and the figures follow a moment later
+  const [checked, setChecked] = useState(false);
+  useEffect(() => { const t = setTimeout(() => setChecked(true), 60); return () => clearTimeout(t); }, []);
   const settled = useDebounced(doc, 250);
-  const report = useMemo(() => lintProcedure(settled), [settled]);
-  const figures = useMemo(() => { try { return pathFigures(settled); } catch { return null; } }, [settled]);
+  const report = useMemo(() => (checked ? lintProcedure(settled) : UNCHECKED), [checked, settled]);
+  const figures = useMemo(() => { if (!checked) return null; try { return pathFigures(settled); } catch { return null; } }, [checked, settled]);
   const diff = useMemo(() => (base ? diffDocuments(base.document, doc) : null), [base, doc]);
 
   const marks = useMemo<FlowMarks>(() => {
@@ -119,7 +124,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
         <StatusBadge status={version.status} />
         {version.number !== null && <span className="font-semibold">v{version.number}</span>}
         <SaveStatus state={saving.state} editable={editable} />
-        <Counts errors={report.errorCount} warnings={report.warningCount} />
+        {checked ? <Counts errors={report.errorCount} warnings={report.warningCount} /> : <span className="text-sm text-ink-soft">Checking…</span>}
         <div className="ml-auto">
           <VersionActions ids={ids} version={version} roles={roles} hasOpenDraft={hasOpenDraft} errors={report.errorCount} beforeMove={saving.save} onChanged={onReload} />
         </div>
@@ -159,7 +164,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
               {tab === 'step' && (selectedStep
                 ? <Inspector step={selectedStep} doc={doc} readOnly={!editable} onEdit={onEdit} />
                 : <p className="text-ink-soft">{selected.length > 1 ? `${selected.length} steps selected: copy, delete or move them together.` : 'Select a step to edit it.'}</p>)}
-              {tab === 'check' && <><SoundnessPanel report={report} onPick={(f: LintFinding) => pick([...f.steps].filter((id) => doc.steps.some((s) => s.id === id)))} /><FiguresPanel figures={figures} /></>}
+              {tab === 'check' && checked && <><SoundnessPanel report={report} onPick={(f: LintFinding) => pick([...f.steps].filter((id) => doc.steps.some((s) => s.id === id)))} /><FiguresPanel figures={figures} /></>}
               {tab === 'review' && <ReviewPanel ids={ids} diff={diff} baseNumber={base?.number ?? null} selectedStep={selected[0] ?? null} canComment={roles.includes('author') || roles.includes('lead')} onPick={(id) => pick([id])} />}
             </>
           )}
