@@ -19,18 +19,7 @@ export interface DecidedStep {
   shown: Record<string, unknown>;
 }
 
-export type MeterEntry = { quantity: string; percentOfReading: number; counts: number; resolution: number };
-
-/** The diagnosis meter's spec for Readings that name none; the phone applies the same rule. */
-export function withMeter(doc: ProcedureDocument, entries: readonly MeterEntry[]): ProcedureDocument {
-  if (!entries.length) return doc;
-  const steps = doc.steps.map((s) => {
-    if (s.kind !== 'reading' || s.meter) return s;
-    const e = entries.find((m) => m.quantity === s.quantity);
-    return e ? { ...s, meter: { percentOfReading: e.percentOfReading, counts: e.counts, resolution: e.resolution } } : s;
-  });
-  return { ...doc, steps };
-}
+export { withMeter, type MeterEntry } from '@shared/engine/meter';
 
 function limitsText(step: Extract<Step, { kind: 'reading' | 'formula' }>): string {
   if (!step.limits) return '';

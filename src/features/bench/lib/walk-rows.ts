@@ -2,23 +2,7 @@ import { walkProcedure, type WalkEntry, type WalkState } from '@shared/engine/wa
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { LocalRow } from '../../../lib/offline/db';
 
-export type MeterEntry = { quantity: string; percentOfReading: number; counts: number; resolution: number };
-
-/**
- * The diagnosis meter's spec fills in Readings that name none, exactly as the server does, so
- * the verdict on the phone and the one on record agree.
- */
-export function withMeter(doc: ProcedureDocument, entries: readonly MeterEntry[]): ProcedureDocument {
-  if (!entries.length) return doc;
-  return {
-    ...doc,
-    steps: doc.steps.map((s) => {
-      if (s.kind !== 'reading' || s.meter) return s;
-      const e = entries.find((m) => m.quantity === s.quantity);
-      return e ? { ...s, meter: { percentOfReading: e.percentOfReading, counts: e.counts, resolution: e.resolution } } : s;
-    }),
-  };
-}
+export { withMeter, type MeterEntry } from '@shared/engine/meter';
 
 /** The rows on the current path: each row cuts the path back to the row it follows. */
 export function pathRows(rows: readonly LocalRow[]): LocalRow[] {
