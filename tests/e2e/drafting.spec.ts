@@ -202,6 +202,11 @@ test('a lead reviewing version 2 sees what changed since version 1, on the canva
   await expect(lead.getByTestId('diff-list')).toContainText(`changed (title)${changedId}`);
   await expect(node(lead, changedId)).toContainText('changed');
   await shot(lead, 'drafting-review-diff');
+  // the lead opens version 1 from the version picker; it is read only and can be retired
+  await lead.getByTestId('version-picker').selectOption({ label: 'Version 1' });
+  await expect(lead.getByText('Published', { exact: true })).toBeVisible();
+  await expect(lead.getByRole('button', { name: 'Retire' })).toBeVisible();
+  await expect(lead.getByText('A numbered version never changes')).toBeVisible();
   await leadContext.close();
 });
 

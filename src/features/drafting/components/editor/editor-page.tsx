@@ -48,6 +48,7 @@ export default function EditorPage() {
         base={baseId ? base.data ?? null : null}
         roles={roles}
         hasOpenDraft={hasOpenDraft}
+        versions={detail.data.versions}
         onReload={() => void reload()}
       />
     </ReactFlowProvider>

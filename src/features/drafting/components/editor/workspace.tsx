@@ -13,7 +13,7 @@ import type { ChangeMark, FlowMarks } from '../../lib/flow';
 import { useDebounced } from '../../hooks/use-debounced';
 import { useDraftSaving } from '../../hooks/use-draft-saving';
 import { useEditorKeys } from '../../hooks/use-editor-keys';
-import type { VersionDetail } from '../../api/types';
+import type { VersionDetail, VersionSummary } from '../../api/types';
 import type { VersionIds } from '../../api/versions';
 import { Inspector } from '../inspector/inspector';
 import { StatusBadge } from '../labels';
@@ -25,6 +25,7 @@ import { PreviewPanel } from './preview-panel';
 import { ReviewPanel } from './review-panel';
 import { Counts, SaveStatus, ToolButton } from './toolbar';
 import { ConflictNotice, VersionActions } from './version-actions';
+import { VersionPicker } from './version-picker';
 
 type Tab = 'step' | 'check' | 'review';
 
@@ -36,11 +37,12 @@ interface Props {
   base: VersionDetail | null;
   roles: string[];
   hasOpenDraft: boolean;
+  versions: VersionSummary[];
   onReload: () => void;
 }
 
 /** The editor: palette, canvas and the side panel, over one history of edits. */
-export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }: Props) {
+export function Workspace({ ids, version, base, roles, hasOpenDraft, versions, onReload }: Props) {
   const editable = version.status === 'draft' && roles.includes('author');
   const [history, dispatch] = useReducer(historyReducer, version.document, initialHistory);
   const doc = history.present;
@@ -123,6 +125,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, onReload }:
         <h1 className="mr-2 text-2xl">{doc.meta.title}</h1>
         <StatusBadge status={version.status} />
         {version.number !== null && <span className="font-semibold">v{version.number}</span>}
+        <VersionPicker procedureId={ids.procedureId} current={version.id} versions={versions} />
         <SaveStatus state={saving.state} editable={editable} />
         {checked ? <Counts errors={report.errorCount} warnings={report.warningCount} /> : <span className="text-sm text-ink-soft">Checking…</span>}
         <div className="ml-auto">
