@@ -33,6 +33,8 @@ export default defineConfig({
         navigateFallback: '/index.html',
         navigateFallbackDenylist: [/^\/api\//],
         globPatterns: ['**/*.{js,css,html,svg,woff2}'],
+        // the editor and its layout engine are for authors at a desk; keep them off technicians' phones
+        globIgnores: ['**/elk.bundled-*.js', '**/editor-page-*.js'],
         maximumFileSizeToCacheInBytes: 4 * 1024 * 1024,
         // Bench: an open diagnosis must survive a reload without signal. The diagnosis itself is in
         // IndexedDB; only "who am I" is needed to get past the sign-in guard, so that one answer is
