@@ -51,15 +51,17 @@ export default defineConfig({
   ],
   build: {
     manifest: true,
-    rollupOptions: {
+    rolldownOptions: {
       output: {
-        // Libraries used by several lazy areas get chunks of their own, so the bundler never
-        // folds them into a chunk that the entry (and so every phone) downloads.
-        manualChunks(id: string) {
-          if (/node_modules[\\/]zod[\\/]/.test(id)) return 'lib-zod';
-          if (/node_modules[\\/](react-hook-form|@hookform)[\\/]/.test(id)) return 'lib-forms';
-          if (/node_modules[\\/]@tanstack[\\/](react-table|table-core)[\\/]/.test(id)) return 'lib-table';
-          return undefined;
+        // Libraries get chunks of their own, named for what they are, so the bundler never folds
+        // a form or table library into a chunk that the entry (and so every phone) downloads.
+        codeSplitting: {
+          groups: [
+            { name: 'lib-react', test: /node_modules[\\/](react|react-dom|scheduler)[\\/]/, priority: 30 },
+            { name: 'lib-zod', test: /node_modules[\\/]zod[\\/]/, priority: 20 },
+            { name: 'lib-forms', test: /node_modules[\\/](react-hook-form|@hookform)[\\/]/, priority: 20 },
+            { name: 'lib-table', test: /node_modules[\\/]@tanstack[\\/](react-table|table-core)[\\/]/, priority: 20 },
+          ],
         },
       },
     },
