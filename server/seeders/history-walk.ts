@@ -6,17 +6,7 @@ import { bandContains } from '@shared/measure/bands';
 // Invented demo history: walks a published procedure towards a fault drawn from stated shares,
 // with readings drawn around the limits. Nothing here is service data.
 
-/** A small seeded generator (mulberry32) so that a seed always gives the same history. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { rng } from '@shared/stats/rng';
 
 export function normal(rand: () => number): number {
   return Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());

@@ -1,16 +1,8 @@
 import { procedureDocumentSchema, type ProcedureDocument, type StepInput } from '@shared/schema';
 
-/** Deterministic PRNG (mulberry32) so generated procedures repeat run to run. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { rng } from '@shared/stats/rng';
+
+export { rng };
 
 const id = (i: number) => `s${i}`;
 const pos = (i: number) => ({ x: (i % 10) * 220, y: Math.floor(i / 10) * 140 });
