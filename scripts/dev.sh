@@ -4,9 +4,8 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/lib.sh
 ensure_node_modules
-export PG_ROOT=${PG_ROOT:-$PWD/.data/pg}
-DATABASE_URL=$(bash scripts/pg.sh start)
-export DATABASE_URL NODE_ENV=development DATA_DIR=${DATA_DIR:-$PWD/.data}
+start_local_db
+export NODE_ENV=development DATA_DIR=${DATA_DIR:-$PWD/.data}
 WEB_PORT=${PORT:-3000}
 export API_PORT=${API_PORT:-$(free_port 3100)}
 pids=()

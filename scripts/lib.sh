@@ -27,3 +27,11 @@ free_port() {
 # The S3 SDK is pinned to a release that supports Node 20 (see the team's stack notes); its
 # reminder that later releases need Node 22 would only add noise to every log.
 export AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED=true
+
+# The durable local cluster that npm start, npm run dev and seed:history share (fsync on);
+# starts it when needed and exports PG_ROOT and DATABASE_URL.
+start_local_db() {
+  export PG_ROOT=${PG_ROOT:-$PWD/.data/pg}
+  DATABASE_URL=$(bash scripts/pg.sh start)
+  export DATABASE_URL
+}

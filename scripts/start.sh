@@ -4,9 +4,7 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/lib.sh
 ensure_node_modules
-export PG_ROOT=${PG_ROOT:-$PWD/.data/pg}
-DATABASE_URL=$(bash scripts/pg.sh start)
-export DATABASE_URL
+start_local_db
 export NODE_ENV=${NODE_ENV:-production} PORT=${PORT:-3000} DATA_DIR=${DATA_DIR:-$PWD/.data}
 server_pid=""
 cleanup() {

@@ -4,10 +4,8 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/lib.sh
 ensure_node_modules
-export PG_ROOT=${PG_ROOT:-$PWD/.data/pg}
-was_up=0; [ -f "$PG_ROOT/data/postmaster.pid" ] && was_up=1
-DATABASE_URL=$(bash scripts/pg.sh start)
-export DATABASE_URL
+was_up=0; [ -f "${PG_ROOT:-$PWD/.data/pg}/data/postmaster.pid" ] && was_up=1
+start_local_db
 [ $was_up = 1 ] || trap 'bash scripts/pg.sh stop' EXIT
 npx tsx scripts/migrate.ts
 npx "$@"
