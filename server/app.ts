@@ -10,6 +10,7 @@ import { csrfSync } from 'csrf-sync';
 import type { AppDeps } from './deps';
 import { initModels } from './models';
 import { configurePassport } from './auth/passport';
+import { CachedSessionStore } from './auth/session-store';
 import { requestId } from './middleware/request-id';
 import { errorHandler, apiNotFound } from './middleware/error-handler';
 import { apiRouter } from './routes';
@@ -59,7 +60,8 @@ export function createApp(deps: AppDeps): Express {
       name: 'sw.sid',
       // No touch on every request: a session lasts one shift from sign-in, and each request
       // costs one session read instead of a read and a write.
-      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15, disableTouch: true }),
+      // (and a short per-process cache in front of PostgreSQL: see auth/session-store.ts)
+      store: new CachedSessionStore(new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15, disableTouch: true })),
       secret: deps.config.SESSION_SECRET,
       resave: false,
       saveUninitialized: false,

@@ -1,5 +1,6 @@
 import type { RequestHandler, Request } from 'express';
 import type { Role } from '@shared/schema/roles';
+import { LRUCache } from 'lru-cache';
 import { Membership } from '../models';
 import { AppError, forbidden, unauthenticated } from '../lib/errors';
 
@@ -30,15 +31,37 @@ export const requireUser: RequestHandler = (req, _res, next) => {
   next();
 };
 
-/** Loads the membership of the signed-in user in the session's current shop. */
+/**
+ * Roles per user and shop, kept briefly per process so that a request costs no membership query.
+ * Changing roles, removing a member and accepting an invitation forget the entry on commit; another
+ * app server (when a shop runs several) sees the change within this time.
+ */
+export const MEMBERSHIP_CACHE_MS = 30_000;
+const memberships = new LRUCache<string, Role[]>({ max: 20_000, ttl: MEMBERSHIP_CACHE_MS });
+const memberKey = (userId: string, shopId: string) => `${userId}:${shopId}`;
+
+export function forgetMembership(userId: string, shopId: string): void {
+  memberships.delete(memberKey(userId, shopId));
+}
+
+async function rolesIn(userId: string, shopId: string): Promise<Role[] | null> {
+  const hit = memberships.get(memberKey(userId, shopId));
+  if (hit) return hit;
+  const membership = await Membership.findOne({ where: { shopId, userId }, attributes: ['roles'] });
+  if (!membership) return null;
+  memberships.set(memberKey(userId, shopId), membership.roles);
+  return membership.roles;
+}
+
+/** Resolves the membership of the signed-in user in the session's current shop. */
 export const requireShop: RequestHandler = async (req, _res, next) => {
   if (!req.user) return next(unauthenticated());
   const shopId = req.session.shopId;
-  const membership = shopId ? await Membership.findOne({ where: { shopId, userId: req.user.id } }) : null;
-  if (!membership) {
+  const roles = shopId ? await rolesIn(req.user.id, shopId) : null;
+  if (!shopId || !roles) {
     return next(new AppError(403, 'no_shop', 'You are not a member of a shop yet. Ask a shop admin for an invitation.'));
   }
-  req.ctx = { userId: req.user.id, shopId: membership.shopId, roles: membership.roles };
+  req.ctx = { userId: req.user.id, shopId, roles: [...roles] };
   next();
 };
 

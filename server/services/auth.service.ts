@@ -7,6 +7,8 @@ import { AppError } from '../lib/errors';
 import type { Me } from '@shared/schema/auth';
 import type { AcceptInvitationInput } from '@shared/schema/auth';
 import { audit } from './audit';
+import { forgetSessionsOf } from '../auth/session-store';
+import { forgetMembership } from '../auth/context';
 
 export const RESET_LINK_MINUTES = 60;
 
@@ -45,7 +47,7 @@ export async function requestPasswordReset(deps: AppDeps, email: string): Promis
 }
 
 export async function resetPassword(deps: AppDeps, raw: string, password: string): Promise<void> {
-  await deps.sequelize.transaction(async (transaction) => {
+  const userId = await deps.sequelize.transaction(async (transaction) => {
     const reset = await PasswordReset.findOne({ where: { tokenHash: hashToken(raw) }, transaction, lock: true });
     if (!reset || reset.usedAt || reset.expiresAt.getTime() < Date.now()) {
       throw new AppError(410, 'link_expired', 'This reset link has expired or was already used. Ask for a new one from the sign-in page.');
@@ -55,10 +57,11 @@ export async function resetPassword(deps: AppDeps, raw: string, password: string
     // any other open links for the same person stop working too
     await PasswordReset.update({ usedAt: new Date() }, { where: { userId: reset.userId, usedAt: null }, transaction });
     await audit({ shopId: null, userId: reset.userId, action: 'password.reset', entity: 'user', entityId: reset.userId }, transaction);
+    return reset.userId;
   });
   // sign the person out everywhere: their sessions are keyed by user id inside the JSON
-  await deps.sequelize.query(`DELETE FROM "session" WHERE sess->'passport'->'user'->>'id' IN (SELECT user_id::text FROM password_resets WHERE token_hash = :h)`,
-    { replacements: { h: hashToken(raw) } });
+  await deps.sequelize.query(`DELETE FROM "session" WHERE sess->'passport'->'user'->>'id' = :userId`, { replacements: { userId } });
+  forgetSessionsOf(userId);
 }
 
 async function openInvitation(raw: string, transaction?: import('sequelize').Transaction) {
@@ -100,6 +103,8 @@ export async function acceptInvitation(deps: AppDeps, input: AcceptInvitationInp
     await Invitation.update({ acceptedAt: new Date() },
       { where: { shopId: inv.shopId, email: inv.email, acceptedAt: null, id: { [Op.ne]: inv.id } }, transaction });
     await audit({ shopId: inv.shopId, userId: user.id, action: 'invitation.accepted', entity: 'invitation', entityId: inv.id }, transaction);
+    const joined = user.id;
+    transaction.afterCommit(() => forgetMembership(joined, inv.shopId));
     return user;
   });
 }

@@ -1,5 +1,5 @@
 import type { ProcedureDocument, Step } from '@shared/schema/procedure';
-import { walkProcedure, type PathStep, type WalkEntry, type WalkProblem } from '@shared/engine/walk';
+import { ProcedureWalk, type PathStep, type WalkEntry, type WalkProblem } from '@shared/engine/walk';
 import { resolveLimits, type Verdict } from '@shared/measure/verdict';
 import { QUANTITY_INFO } from '@shared/measure/quantities';
 import { formatLimit } from '@shared/measure/format';
@@ -83,28 +83,44 @@ function decided(step: Step, p: PathStep, answer: StepAnswer): DecidedStep {
   };
 }
 
+/** The walk over the stored path, checked to replay exactly as stored. */
+function replay(doc: ProcedureDocument, steps: ReadonlyMap<string, Step>, keep: readonly PathRow[]): ProcedureWalk {
+  const walk = ProcedureWalk.start(doc);
+  for (const r of keep) {
+    const entry = entryOf(steps.get(r.stepId), r);
+    if (entry && walk.take(entry).status !== 'applied') break;
+  }
+  const replayed = walk.record.every((r) => r.status === 'applied') && keep.every((r, i) => walk.path[i]?.stepId === r.stepId);
+  if (!replayed) throw new AppError(422, 'record_mismatch', 'The stored answers no longer replay on this procedure version. Hand the machine to a senior technician.');
+  return walk;
+}
+
 /**
  * Re-decides an arriving answer with the shared walker over the pinned version: the stored path
  * up to the step it follows, then this answer. The walker parses the reading, applies lead null,
  * temperature correction and the meter's uncertainty, computes Formulas and picks the branch, so
  * the server and the phone cannot disagree. Throws a 400/422 AppError the technician can act on.
+ *
+ * `prior` is the walk over exactly `keep`, when the caller kept one from the previous answer: it is
+ * forked, not replayed. The returned walk includes this answer.
  */
-export function decideStep(doc: ProcedureDocument, steps: ReadonlyMap<string, Step>, keep: readonly PathRow[], answer: StepAnswer): DecidedStep {
+export function decideStep(
+  doc: ProcedureDocument, steps: ReadonlyMap<string, Step>, keep: readonly PathRow[], answer: StepAnswer, prior?: ProcedureWalk,
+): { decided: DecidedStep; walk: ProcedureWalk } {
   const step = steps.get(answer.stepId)!;
-  const entries = keep.map((r) => entryOf(steps.get(r.stepId), { ...r, lead: r.lead }))
-    .concat(entryOf(step, { ...answer, lead: answer.leadEntered }))
-    .filter((e): e is WalkEntry => e !== null);
-  const state = walkProcedure(doc, entries);
-  const refused = state.record.find((r) => r.status === 'rejected');
-  if (refused?.problem && refused.index === entries.length - 1) throw refusal(refused.problem);
+  const walk = prior ? prior.fork() : replay(doc, steps, keep);
   const at = keep.length;
-  const p = state.path[at];
-  const replayed = keep.every((r, i) => state.path[i]?.stepId === r.stepId);
-  if (refused || !replayed) throw new AppError(422, 'record_mismatch', 'The stored answers no longer replay on this procedure version. Hand the machine to a senior technician.');
-  if (!p || p.stepId !== answer.stepId) {
-    if (state.status === 'stuck' && state.problem) throw refusal(state.problem);
-    throw new AppError(422, 'branch_not_allowed', `The procedure does not lead to "${answer.stepId}" from there${state.path[at] ? `; the next step is "${state.path[at]!.stepId}"` : ''}. Reload the diagnosis.`);
+  const entry = entryOf(step, { ...answer, lead: answer.leadEntered });
+  // An answer is for the step the walk stands at; going back is said with `after`, not here.
+  if (entry && !(walk.status === 'in-progress' && walk.current?.id !== answer.stepId)) {
+    const taken = walk.take(entry);
+    if (taken.status === 'rejected' && taken.problem) throw refusal(taken.problem);
   }
-  if (p.outcome === 'stuck') throw refusal(state.problem ?? { code: 'no-band', message: `No band of ${step.title} covers that value.` });
-  return decided(step, p, answer);
+  const p = walk.path[at];
+  if (!p || p.stepId !== answer.stepId) {
+    if (walk.status === 'stuck' && walk.problem) throw refusal(walk.problem);
+    throw new AppError(422, 'branch_not_allowed', `The procedure does not lead to "${answer.stepId}" from there${walk.path[at] ? `; the next step is "${walk.path[at]!.stepId}"` : walk.current ? `; the next step is "${walk.current.id}"` : ''}. Reload the diagnosis.`);
+  }
+  if (p.outcome === 'stuck') throw refusal(walk.problem ?? { code: 'no-band', message: `No band of ${step.title} covers that value.` });
+  return { decided: decided(step, p, answer), walk };
 }

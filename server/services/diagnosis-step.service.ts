@@ -1,10 +1,12 @@
 import { createHash } from 'node:crypto';
+import { LRUCache } from 'lru-cache';
 import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
 import { parseInput } from '../lib/validate';
 import { loadPinnedVersion } from './bench.service';
 import { decideStep, withMeter, type PathRow } from './diagnosis-decide';
+import type { ProcedureWalk } from '@shared/engine/walk';
 import { FindingOutcomeInput, HandoffOutcomeInput, type StepInput } from './diagnosis.schema';
 import { notifyHandoff } from './report.service';
 
@@ -14,9 +16,13 @@ export interface StepResult {
 }
 
 interface Head {
+  /** diagnoses.updated_at as text (microseconds kept): the write goes ahead only if it is unchanged. */
+  stamp: string;
   status: string; technician_id: string; procedure_version_id: string; max_seq: number;
   meter: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] | null;
   path: PathRow[];
+  /** Kept in memory only: the walk over exactly `path`, so the next answer is not a replay. */
+  walk?: ProcedureWalk | undefined;
   existing: { diagnosis_id: string; payload_hash: string; seq: number; step_id: string; value: number | null; verdict: string | null; band_id: string | null; answer_id: string | null; next_step_id: string | null } | null;
 }
 
@@ -28,10 +34,11 @@ export function payloadHash(input: unknown): string {
 }
 
 // One statement reads everything the decision needs. It takes no lock: the write below is one
-// atomic statement, and the unique (diagnosis_id, seq) index turns a concurrent append into a
-// conflict that is retried with a fresh read, so seq stays dense and the path consistent.
+// atomic statement that goes ahead only while the diagnosis is unchanged since this read (its
+// updated_at), and the unique (diagnosis_id, seq) index backs that up; a concurrent change makes
+// the step be decided again on a fresh read, so seq stays dense and the path consistent.
 const HEAD_SQL = `
-  SELECT d.status, d.technician_id, d.procedure_version_id, m.spec->'entries' AS meter,
+  SELECT d.updated_at::text AS stamp, d.status, d.technician_id, d.procedure_version_id, m.spec->'entries' AS meter,
     (SELECT coalesce(max(seq), 0) FROM diagnosis_steps WHERE diagnosis_id = d.id) AS max_seq,
     (SELECT coalesce(json_agg(json_build_object('id', s.id, 'seq', s.seq, 'stepId', s.step_id, 'next', s.next_step_id, 'entered', s.entered,
         'lead', s.shown->>'leadEntered', 'answerId', s.answer_id, 'acknowledged', coalesce((s.shown->>'acknowledged')::boolean, false)) ORDER BY s.seq), '[]')
@@ -45,7 +52,7 @@ const HEAD_SQL = `
 // one statement (so one transaction); nothing is written once the diagnosis has ended.
 const WRITE_SQL = `
   WITH live AS (
-    SELECT 1 FROM diagnoses WHERE id = $3::uuid AND status = 'active'
+    SELECT 1 FROM diagnoses WHERE id = $3::uuid AND status = 'active' AND updated_at = $23::timestamptz
   ), sup AS (
     UPDATE diagnosis_steps SET superseded = true
      WHERE diagnosis_id = $3::uuid AND $19::int IS NOT NULL AND seq >= $19::int AND NOT superseded
@@ -63,8 +70,9 @@ const WRITE_SQL = `
            status = coalesce($20::text, status), ending_step_id = coalesce($21::text, ending_step_id),
            outcome = coalesce($22::jsonb, outcome), ended_at = CASE WHEN $20::text IS NULL THEN ended_at ELSE $16::timestamptz END
      WHERE id = $3::uuid AND EXISTS (SELECT 1 FROM ins)
+    RETURNING updated_at::text AS stamp
   )
-  SELECT count(*)::int AS inserted FROM ins`;
+  SELECT (SELECT count(*) FROM ins)::int AS inserted, (SELECT stamp FROM touched) AS stamp`;
 
 interface PgClient { query<R>(q: { name: string; text: string; values: unknown[] }): Promise<{ rows: R[] }> }
 
@@ -115,15 +123,17 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
     throw new AppError(422, 'unknown_step', `Step "${input.stepId}" is not part of version ${version.number} of "${version.title}", which this diagnosis follows. Reload the diagnosis.`);
   }
   const keep = keptPath(head.path, input.after);
-  const decided = decideStep(withMeter(version.document, head.meter ?? []), version.steps, keep, input);
+  const prior = keep.length === head.path.length ? head.walk : undefined;
+  const { decided, walk } = decideStep(prior?.doc ?? withMeter(version.document, head.meter ?? []), version.steps, keep, input, prior);
   const { endStatus, outcome } = outcomeFor(step.kind, input);
   const seq = Number(head.max_seq) + 1;
-  const { rows: [written] } = await onPooledClient(deps, (c) => c.query<{ inserted: number }>({
+  const { rows: [written] } = await onPooledClient(deps, (c) => c.query<{ inserted: number; stamp: string | null }>({
     name: 'bench-step-write', text: WRITE_SQL,
     values: [
       input.id, ctx.shopId, diagnosisId, seq, step.id, step.kind, JSON.stringify(decided.shown), decided.entered, decided.value,
       decided.unit, decided.verdict, decided.bandId, decided.answerId, input.note, input.startedAt, input.answeredAt, hash, decided.next,
       keep.length < head.path.length ? head.path[keep.length]!.seq : null, endStatus, endStatus ? step.id : null, outcome,
+      head.stamp,
     ],
   }));
   // Nothing stored: the diagnosis ended, or the same id arrived at the same moment. Read again.
@@ -132,7 +142,31 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
     id: input.id, seq, stepId: step.id, value: decided.value, verdict: decided.verdict, bandId: decided.bandId,
     answerId: decided.answerId, next: decided.next, status: endStatus ?? 'active', duplicate: false,
   };
-  return { result, handoff: step.kind === 'handoff' };
+  const row: PathRow = {
+    id: input.id, seq, stepId: step.id, next: decided.next, entered: decided.entered,
+    lead: input.leadEntered || null, answerId: decided.answerId, acknowledged: input.acknowledged,
+  };
+  const after: Head = { ...head, stamp: written.stamp!, status: result.status, max_seq: seq, path: [...keep, row], walk, existing: null };
+  return { result, after, handoff: step.kind === 'handoff' };
+}
+
+/**
+ * The head of each diagnosis being stepped in this process, as it stood after its last write here:
+ * the next step skips the read. The write checks the stamp, so a head that went stale (another
+ * server, the abandon sweep) only costs a fresh read.
+ */
+const heads = new LRUCache<string, { shopId: string; head: Head }>({ max: 5_000, ttl: 15 * 60_000 });
+
+function rememberHead(diagnosisId: string, shopId: string, head: Head): void {
+  if (head.status === 'active') heads.set(diagnosisId, { shopId, head: { ...head, existing: null } });
+  else heads.delete(diagnosisId);
+}
+
+async function readHead(deps: AppDeps, ctx: ShopContext, diagnosisId: string, stepRowId: string, attempt: number): Promise<{ head: Head | undefined; cached: boolean }> {
+  const known = attempt === 0 ? heads.get(diagnosisId) : undefined;
+  if (known && known.shopId === ctx.shopId) return { head: known.head, cached: true };
+  const { rows: [head] } = await onPooledClient(deps, (c) => c.query<Head>({ name: 'bench-step-head', text: HEAD_SQL, values: [diagnosisId, ctx.shopId, stepRowId] }));
+  return { head, cached: false };
 }
 
 const isSeqConflict = (e: unknown) => (e as { code?: string; constraint?: string }).code === '23505'
@@ -146,7 +180,7 @@ const isSeqConflict = (e: unknown) => (e as { code?: string; constraint?: string
 export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput): Promise<StepResult> {
   const hash = payloadHash(input);
   for (let attempt = 0; attempt < 4; attempt++) {
-    const { rows: [head] } = await onPooledClient(deps, (c) => c.query<Head>({ name: 'bench-step-head', text: HEAD_SQL, values: [diagnosisId, ctx.shopId, input.id] }));
+    const { head, cached } = await readHead(deps, ctx, diagnosisId, input.id, attempt);
     if (!head) throw notFound('That diagnosis');
     // Another technician's diagnosis is not theirs to read either, so it does not exist for them.
     if (head.technician_id !== ctx.userId && !ctx.roles.includes('lead')) throw notFound('That diagnosis');
@@ -161,10 +195,17 @@ export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: s
     try {
       out = await decideAndWrite(deps, ctx, diagnosisId, input, head, hash);
     } catch (e) {
-      if (isSeqConflict(e)) continue; // another answer took this place a moment ago: decide again
+      heads.delete(diagnosisId);
+      // Another answer took this place a moment ago, or the remembered head could not place a
+      // repeated step: decide again on a fresh read, which also finds a step already stored.
+      if (isSeqConflict(e) || (cached && e instanceof AppError)) continue;
       throw e;
     }
-    if (!out) continue;
+    if (!out) {
+      heads.delete(diagnosisId);
+      continue;
+    }
+    rememberHead(diagnosisId, ctx.shopId, out.after);
     if (out.handoff) await notifyHandoff(deps, ctx, diagnosisId);
     return out.result;
   }

@@ -1,5 +1,5 @@
 import type { AppDeps } from '../deps';
-import type { ShopContext } from '../auth/context';
+import { forgetMembership, type ShopContext } from '../auth/context';
 import { Invitation, Membership, Shop, User } from '../models';
 import { AppError, notFound } from '../lib/errors';
 import { newLinkToken } from '../lib/tokens';
@@ -35,6 +35,7 @@ export async function updateMemberRoles(deps: AppDeps, ctx: ShopContext, members
   }
   await deps.sequelize.transaction(async (transaction) => {
     await m.update({ roles: [...new Set(roles)] }, { transaction });
+    transaction.afterCommit(() => forgetMembership(m.userId, m.shopId));
     await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'member.roles_changed', entity: 'membership', entityId: m.id, detail: { roles } }, transaction);
   });
   return { id: m.id, roles: m.roles };
@@ -48,6 +49,7 @@ export async function removeMember(deps: AppDeps, ctx: ShopContext, membershipId
   }
   await deps.sequelize.transaction(async (transaction) => {
     await m.destroy({ transaction });
+    transaction.afterCommit(() => forgetMembership(m.userId, m.shopId));
     await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'member.removed', entity: 'membership', entityId: m.id }, transaction);
   });
 }

@@ -1,5 +1,5 @@
 export { lintProcedure, type LintReport, type LintCode, type LintFinding, type LintOptions, type LintSeverity } from './lint';
-export { walkProcedure, type WalkAnswer, type WalkEntry, type WalkState, type WalkProblem, type WalkProblemCode, type PathStep, type EntryRecord } from './walk';
+export { walkProcedure, ProcedureWalk, type WalkAnswer, type WalkEntry, type WalkState, type WalkProblem, type WalkProblemCode, type PathStep, type EntryRecord } from './walk';
 export { stepView, limitsView, type StepView, type LimitsView } from './step-view';
 export { pathFigures, stepMinutes, type PathFigures, type PathFiguresOptions, type PathLength, type StepFigures, type BranchCounts } from './figures';
 export { buildGraph, type ProcedureGraph } from './graph';

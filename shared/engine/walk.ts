@@ -73,8 +73,13 @@ type Outcome = { path: PathStep; value?: FormulaValue } | WalkProblem;
 
 const problem = (code: WalkProblemCode, message: string, extra: Partial<WalkProblem> = {}): WalkProblem => ({ code, message, ...extra });
 
-class Walk {
-  readonly steps = new Map<string, Step>();
+/**
+ * A walk over a procedure that takes one entry at a time. `walkProcedure` replays a whole log with
+ * it; the server keeps one per diagnosis being stepped, so an answer costs one entry rather than a
+ * replay of the path. Treat its fields as read-only; `fork` before applying to a walk kept elsewhere.
+ */
+export class ProcedureWalk {
+  readonly steps: ReadonlyMap<string, Step>;
   path: PathStep[] = [];
   record: EntryRecord[] = [];
   values: Record<string, FormulaValue> = {};
@@ -82,11 +87,38 @@ class Walk {
   status: WalkState['status'] = 'in-progress';
   problem: WalkProblem | null = null;
 
-  constructor(readonly doc: ProcedureDocument) {
-    for (const s of doc.steps) if (!this.steps.has(s.id)) this.steps.set(s.id, s);
+  private constructor(readonly doc: ProcedureDocument, steps?: ReadonlyMap<string, Step>) {
+    if (steps) {
+      this.steps = steps;
+      return;
+    }
+    const byId = new Map<string, Step>();
+    for (const s of doc.steps) if (!byId.has(s.id)) byId.set(s.id, s);
+    this.steps = byId;
   }
 
-  arrive(id: string | null): void {
+  /** A walk standing at the procedure's first step (or stuck, when that step does not exist). */
+  static start(doc: ProcedureDocument): ProcedureWalk {
+    const walk = new ProcedureWalk(doc);
+    if (!walk.steps.has(doc.start)) walk.stick(problem('no-start', `The procedure's first step "${doc.start}" does not exist; it cannot be walked.`));
+    else walk.arrive(doc.start);
+    return walk;
+  }
+
+  /** An independent copy: applying entries to it leaves this walk as it is. */
+  fork(): ProcedureWalk {
+    const copy = new ProcedureWalk(this.doc, this.steps);
+    Object.assign(copy, { path: [...this.path], record: [...this.record], values: { ...this.values }, current: this.current, status: this.status, problem: this.problem });
+    return copy;
+  }
+
+  /** Takes the next log entry; its record says whether it was applied or refused, and why. */
+  take(entry: WalkEntry): EntryRecord {
+    this.apply(entry, this.record.length);
+    return this.record[this.record.length - 1]!;
+  }
+
+  private arrive(id: string | null): void {
     const step = id === null ? undefined : this.steps.get(id);
     if (!step) return this.stick(problem('dangling', `The procedure points to "${id}", which does not exist; hand the machine to a senior technician.`));
     this.current = step;
@@ -99,24 +131,24 @@ class Walk {
     if (step.kind === 'formula') {
       const r = this.compute(step);
       if ('code' in r) return this.stick(r);
-      this.take(r);
+      this.follow(r);
     }
   }
 
-  stick(p: WalkProblem): void {
+  private stick(p: WalkProblem): void {
     this.status = 'stuck';
     this.problem = p;
     this.current = null;
   }
 
-  take(r: { path: PathStep; value?: FormulaValue }): void {
+  private follow(r: { path: PathStep; value?: FormulaValue }): void {
     this.path.push(r.path);
     if (r.value) this.values[r.path.stepId] = r.value;
     if (r.path.outcome === 're-measure' || r.path.outcome === 'stuck') return;
     this.arrive(r.path.next);
   }
 
-  compute(step: FormulaStep): Outcome {
+  private compute(step: FormulaStep): Outcome {
     const r = evaluateFormula(step.expression, this.values, { expect: step.quantity });
     if (!r.ok) return problem('formula-failed', `The app could not compute ${step.title}: ${r.error.message}`);
     const decision = decideReading({ value: r.value, limits: step.limits, bands: step.bands });
@@ -126,13 +158,13 @@ class Walk {
     return { path: { stepId: step.id, kind: 'formula', entryIndex: null, decision, value: r.value, next, outcome: 'computed' }, value };
   }
 
-  remeasured(stepId: string): number {
+  private remeasured(stepId: string): number {
     let n = 0;
     for (let i = this.path.length - 1; i >= 0 && this.path[i]!.stepId === stepId && this.path[i]!.outcome === 're-measure'; i--) n++;
     return n;
   }
 
-  measure(step: ReadingStep, answer: Extract<WalkAnswer, { kind: 'reading' }>, index: number): Outcome {
+  private measure(step: ReadingStep, answer: Extract<WalkAnswer, { kind: 'reading' }>, index: number): Outcome {
     const parsed = parseReading(answer.text, step.quantity, step.unit);
     if (!parsed.ok) return problem('bad-reading', parsed.error.message, { readingError: parsed.error });
     let lead: number | undefined;
@@ -156,7 +188,7 @@ class Walk {
     return { path: { ...base, next: route.next, outcome: 'answered' }, value };
   }
 
-  answer(step: Step, entry: WalkEntry, index: number): Outcome {
+  private answer(step: Step, entry: WalkEntry, index: number): Outcome {
     const a = entry.answer;
     if (step.kind !== a.kind) return problem('wrong-kind', `${step.title} expects ${step.kind === 'observation' ? 'an answer' : `a ${step.kind}`}, not a ${a.kind}.`);
     if (step.safety.some((n) => n.signal === 'DANGER') && !entry.acknowledged) {
@@ -173,7 +205,7 @@ class Walk {
   }
 
   /** Going back: later path steps no longer apply; their entries stay in the record as superseded. */
-  rewind(to: number): void {
+  private rewind(to: number): void {
     const target = this.path[to]!.stepId;
     const dropped = new Set(this.path.slice(to).map((p) => p.entryIndex).filter((i): i is number => i !== null));
     this.record = this.record.map((r) => (dropped.has(r.index) ? { ...r, status: 'superseded' } : r));
@@ -188,7 +220,7 @@ class Walk {
     this.problem = null;
   }
 
-  backTarget(entry: WalkEntry): number {
+  private backTarget(entry: WalkEntry): number {
     if (entry.pathIndex !== undefined) {
       const p = this.path[entry.pathIndex];
       return p && p.stepId === entry.stepId && p.entryIndex !== null ? entry.pathIndex : -1;
@@ -203,7 +235,7 @@ class Walk {
     return -1;
   }
 
-  apply(entry: WalkEntry, index: number): void {
+  private apply(entry: WalkEntry, index: number): void {
     const isCurrent = this.current?.id === entry.stepId && entry.pathIndex === undefined;
     if (!isCurrent) {
       const k = this.backTarget(entry);
@@ -225,12 +257,13 @@ class Walk {
     }
     this.record.push({ index, entry, status: 'applied' });
     this.problem = null;
-    this.take(outcome);
+    this.follow(outcome);
     if (outcome.path.outcome === 'stuck') {
       this.stick(problem('no-band', `No band of ${this.steps.get(outcome.path.stepId)!.title} covers ${outcome.path.reading?.understood}; check the reading, or hand the machine to a senior technician.`));
     }
   }
 
+  /** What to show and where the walk went, for screens. */
   state(): WalkState {
     const last = this.path[this.path.length - 1];
     const endingStep = this.status === 'ended' && last ? this.steps.get(last.stepId) : undefined;
@@ -252,12 +285,8 @@ class Walk {
  * → the step after the "none" answer.
  */
 export function walkProcedure(doc: ProcedureDocument, log: readonly WalkEntry[]): WalkState {
-  const walk = new Walk(doc);
-  if (!walk.steps.has(doc.start)) {
-    walk.stick(problem('no-start', `The procedure's first step "${doc.start}" does not exist; it cannot be walked.`));
-    return walk.state();
-  }
-  walk.arrive(doc.start);
-  log.forEach((entry, i) => walk.apply(entry, i));
+  const walk = ProcedureWalk.start(doc);
+  if (walk.problem?.code === 'no-start') return walk.state();
+  for (const entry of log) walk.take(entry);
   return walk.state();
 }

@@ -3,9 +3,10 @@
 // on the same server that does one plain INSERT with pg. Both under autocannon, 50 connections,
 // in one run. Targets: steps ≥ 50 % of the bare throughput, p99 < 50 ms, zero errors.
 import { randomUUID } from 'node:crypto';
-import { fork } from 'node:child_process';
+import { fork, type ChildProcess } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { mkdtempSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import inspector from 'node:inspector/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
@@ -122,14 +123,25 @@ function run(opts: { url: string; sessions?: { cookie: string; csrf: string }[];
   });
 }
 
-const summary = (name: string, r: autocannon.Result) =>
-  `${name.padEnd(6)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   errors ${r.errors}   non-2xx ${r.non2xx}`;
+const summary = (name: string, r: autocannon.Result & { cpuUs: number }) =>
+  `${name.padEnd(6)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   server CPU ${r.cpuUs.toFixed(0).padStart(4)} µs/req   errors ${r.errors}   non-2xx ${r.non2xx}`;
 
 /** The server side: its own process, so autocannon does not share its event loop. */
 async function serve(): Promise<void> {
   const env = await setUp();
   process.send!({ base: env.base, diagnoses: env.diagnoses });
+  const profiler = process.env.PERF_PROFILE ? new inspector.Session() : null;
+  profiler?.connect();
   process.on('message', (m) => {
+    if (m === 'profile-start' && profiler) void profiler.post('Profiler.enable').then(() => profiler.post('Profiler.start')).then(() => process.send!('profiling'));
+    if (typeof m === 'string' && m.startsWith('profile-stop:') && profiler) {
+      void profiler.post('Profiler.stop').then(({ profile }) => {
+        mkdirSync('.tmp/prof', { recursive: true });
+        writeFileSync(`.tmp/prof/${m.slice('profile-stop:'.length)}.cpuprofile`, JSON.stringify(profile));
+        process.send!('profiled');
+      });
+    }
+    if (m === 'cpu') process.send!({ cpu: process.cpuUsage() });
     if (m !== 'stop') return;
     env.server.close();
     // let in-flight requests finish before the pools close
@@ -137,8 +149,35 @@ async function serve(): Promise<void> {
   });
 }
 
+/** The server process' CPU time (user + system, µs) so far. */
+function serverCpu(child: ChildProcess): Promise<number> {
+  return new Promise((resolve) => {
+    const on = (m: unknown) => {
+      const cpu = (m as { cpu?: NodeJS.CpuUsage }).cpu;
+      if (cpu) { child.off('message', on); resolve(cpu.user + cpu.system); }
+    };
+    child.on('message', on);
+    child.send('cpu');
+  });
+}
+
+/** One autocannon run with the server's CPU time per request it answered. */
+async function measured(child: ChildProcess, go: () => Promise<autocannon.Result>): Promise<autocannon.Result & { cpuUs: number }> {
+  const before = await serverCpu(child);
+  const result = await go();
+  return { ...result, cpuUs: (await serverCpu(child) - before) / Math.max(1, result.requests.total) };
+}
+
+function ask(child: ChildProcess, message: string, answer: string): Promise<void> {
+  return new Promise((resolve) => {
+    const on = (m: unknown) => { if (m === answer) { child.off('message', on); resolve(); } };
+    child.on('message', on);
+    child.send(message);
+  });
+}
+
 async function main(): Promise<void> {
-  const child = fork(fileURLToPath(import.meta.url), [], { env: { ...process.env, PERF_ROLE: 'server' }, execArgv: ['--import', 'tsx', ...(process.env.PERF_PROFILE ? ['--cpu-prof', '--cpu-prof-dir=.tmp/prof'] : [])] });
+  const child = fork(fileURLToPath(import.meta.url), [], { env: { ...process.env, PERF_ROLE: 'server' }, execArgv: ['--import', 'tsx'] });
   const env = await new Promise<{ base: string; diagnoses: string[] }>((resolve, reject) => {
     child.once('message', (m) => resolve(m as { base: string; diagnoses: string[] }));
     child.once('exit', (code) => reject(new Error(`the server process stopped (${code})`)));
@@ -148,14 +187,23 @@ async function main(): Promise<void> {
   try {
     const sessions = await Promise.all(Array.from({ length: CONNECTIONS }, () => signIn(env.base)));
     const half = env.diagnoses.length / 2;
+    // PERF_PROFILE=steps (or bare, floor, me): a CPU profile of the server over that run only,
+    // written to .tmp/prof/<run>.cpuprofile
+    const profiled = async <T>(name: string, go: () => Promise<T>): Promise<T> => {
+      if (process.env.PERF_PROFILE !== name) return go();
+      await ask(child, 'profile-start', 'profiling');
+      const out = await go();
+      await ask(child, `profile-stop:${name}`, 'profiled');
+      return out;
+    };
     // warm both paths (JIT, pools, the pinned-version cache) before measuring
     await run({ url: env.base, diagnoses: env.diagnoses.slice(half), bare: true });
     await run({ url: env.base, sessions, diagnoses: env.diagnoses.slice(half), bare: false });
-    const bare = await run({ url: env.base, diagnoses: env.diagnoses.slice(0, half / 2), bare: true });
-    const steps = await run({ url: env.base, sessions, diagnoses: env.diagnoses.slice(half / 2, half), bare: false });
+    const bare = await profiled('bare', () => measured(child, () => run({ url: env.base, diagnoses: env.diagnoses.slice(0, half / 2), bare: true })));
+    const steps = await profiled('steps', () => measured(child, () => run({ url: env.base, sessions, diagnoses: env.diagnoses.slice(half / 2, half), bare: false })));
     // What any signed-in shop request pays (session, user, membership, one small query), for scale.
-    const floor = await run({ url: env.base, sessions, diagnoses: [], bare: false, floor: '/api/shop/meters' });
-    const me = await run({ url: env.base, sessions, diagnoses: [], bare: false, floor: '/api/auth/me' });
+    const floor = await profiled('floor', () => measured(child, () => run({ url: env.base, sessions, diagnoses: [], bare: false, floor: '/api/shop/meters' })));
+    const me = await profiled('me', () => measured(child, () => run({ url: env.base, sessions, diagnoses: [], bare: false, floor: '/api/auth/me' })));
     const ratio = steps.requests.average / bare.requests.average;
     const { rows: [stored] } = await db.query<{ n: number; per: number }>(
       'SELECT count(*)::int AS n, count(DISTINCT diagnosis_id)::int AS per FROM diagnosis_steps WHERE diagnosis_id = ANY($1::uuid[])', [env.diagnoses.slice(half / 2, half)]);

@@ -133,11 +133,8 @@ describe('stepping through the pinned version', () => {
     expect(rows[2]!.verdict).toBe('above');
   });
 
-  it('records one step with one read and one atomic write (six statements with the session and sign-in lookups)', async () => {
-    const id = await start();
-    const a = await step(id, 'killLead', null);
-    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
-    // A pg query counter: every statement any part of the app sends goes through pg.Client#query.
+  /** Every statement any part of the app sends while fn runs (they all go through pg.Client#query). */
+  async function statementsDuring(fn: () => Promise<unknown>): Promise<string[]> {
     const sql: string[] = [];
     const spy = vi.spyOn(pg.Client.prototype, 'query').mockImplementation(function (this: pg.Client, ...args: unknown[]) {
       const q = args[0] as string | { text: string };
@@ -145,16 +142,47 @@ describe('stepping through the pinned version', () => {
       return originalQuery.apply(this, args as never) as never;
     });
     try {
-      await step(id, 'exciter', b.id, { entered: '150' });
-      await new Promise((r) => setTimeout(r, 200)); // the session store touches the session after the response
+      await fn();
+      await new Promise((r) => setTimeout(r, 200)); // anything the session store might do after the response
     } finally {
       spy.mockRestore();
     }
-    const mine = sql.filter((s) => /diagnosis_steps/.test(s));
-    expect(mine, sql.join('\n---\n')).toHaveLength(2);
-    expect(mine.filter((s) => /INSERT INTO diagnosis_steps/.test(s))).toHaveLength(1);
-    // the rest: session read and touch, passport's user, requireShop's membership
-    expect(sql.length, sql.join('\n---\n')).toBeLessThanOrEqual(6);
+    return sql;
+  }
+
+  it('records a step of a diagnosis being stepped with one statement, the atomic write', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    // session, membership and the diagnosis' head are remembered from the steps before
+    const sql = await statementsDuring(() => step(id, 'exciter', b.id, { entered: '150' }));
+    expect(sql, sql.join('\n---\n')).toHaveLength(1);
+    expect(sql[0]).toMatch(/INSERT INTO diagnosis_steps/);
+  });
+
+  it('a diagnosis changed elsewhere since its last step here (another app server) costs one fresh read, and the step still lands in order', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    // what another server's write looks like from here: the row moved on without this process
+    await env.runtime.deps.sequelize.query(`UPDATE diagnoses SET updated_at = now() WHERE id = :id`, { replacements: { id } });
+    let b: Awaited<ReturnType<typeof step>> | undefined;
+    const sql = await statementsDuring(async () => { b = await step(id, 'sparkTest', a.id, { answerId: 'none' }); });
+    expect(sql.filter((s) => /INSERT INTO diagnosis_steps/.test(s)), sql.join('\n---\n')).toHaveLength(2); // refused, then stored
+    expect(sql.filter((s) => /FROM diagnoses d LEFT JOIN meters/.test(s))).toHaveLength(1);
+    expect(b!.seq).toBe(2);
+    const rows = await DiagnosisStep.findAll({ where: { diagnosisId: id }, order: [['seq', 'ASC']] });
+    expect(rows.map((r) => [r.seq, r.stepId, r.superseded])).toEqual([[1, 'killLead', false], [2, 'sparkTest', false]]);
+  });
+
+  it('a diagnosis the abandon sweep ended while it was remembered here refuses the next step, and nothing is stored', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    await env.runtime.deps.sequelize.query(`UPDATE diagnoses SET last_activity_at = now() - interval '48 hours' WHERE id = :id`, { replacements: { id } });
+    await markAbandoned(env.runtime.deps);
+    const res = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('sparkTest', a.id, { answerId: 'none' }));
+    expect(res.status).toBe(409);
+    expect(expectEnvelope(res.body).code).toBe('diagnosis_ended');
+    expect(await DiagnosisStep.count({ where: { diagnosisId: id } })).toBe(1);
   });
 
   it('the same step sent five times at once is stored once', async () => {

@@ -1,5 +1,6 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, type Client } from './harness';
+import { startTestApp, signInAs, otherShopMember, expectEnvelope, Client, DEMO_PASSWORD, type TestEnv } from './harness';
+import { hashPassword } from '../../server/lib/passwords';
 import { Vehicle, Membership, User, Invitation } from '../../server/models';
 
 let env: TestEnv;
@@ -43,6 +44,21 @@ describe('roles on the shop routes', () => {
     const { default: request } = await import('supertest');
     const res = await request(env.app).get('/api/vehicles').expect(401);
     expect(expectEnvelope(res.body).code).toBe('unauthenticated');
+  });
+
+  it("a member's new roles, and their removal, apply from their very next request", async () => {
+    const user = await User.create({ email: 'wren@larkspur.test', name: 'Wren Apprentice', passwordHash: await hashPassword(DEMO_PASSWORD) });
+    const shopId = (await Membership.findOne({ where: { userId: (await User.findOne({ where: { email: 'admin@larkspur.test' } }))!.id } }))!.shopId;
+    const m = await Membership.create({ shopId, userId: user.id, roles: ['technician'] });
+    const wren = new Client(env.app);
+    expect((await wren.signIn('wren@larkspur.test')).status).toBe(200);
+    expect((await wren.get('/api/shop/members')).status).toBe(403); // read once, so now remembered
+    await admin.patch(`/api/shop/members/${m.id}`, { roles: ['technician', 'admin'] }).expect(200);
+    await wren.get('/api/shop/members').expect(200);
+    await admin.delete(`/api/shop/members/${m.id}`).expect(204);
+    const gone = await wren.get('/api/vehicles');
+    expect(gone.status).toBe(403);
+    expect(expectEnvelope(gone.body).code).toBe('no_shop');
   });
 
   it('the last admin cannot remove their own admin role', async () => {
