@@ -36,13 +36,17 @@ const contentSecurityPolicy = {
   },
 };
 
-/** The Express app without listen(), so that tests drive it with supertest. */
-export function createApp(deps: AppDeps): Express {
+/**
+ * The Express app without listen(), so that tests drive it with supertest. `first` adds routes
+ * ahead of every middleware (the step benchmark's bare endpoint, on the same app and server).
+ */
+export function createApp(deps: AppDeps, first?: (app: Express) => void): Express {
   initModels(deps.sequelize);
   configurePassport();
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  first?.(app);
   app.use(requestId);
   app.use(helmet({ contentSecurityPolicy, crossOriginEmbedderPolicy: false }));
 

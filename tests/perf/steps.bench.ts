@@ -57,15 +57,14 @@ async function setUp() {
   await runtime.deps.sequelize.query('CREATE TABLE IF NOT EXISTS perf_bare_steps (id uuid PRIMARY KEY, diagnosis_id uuid NOT NULL, body jsonb NOT NULL, created_at timestamptz NOT NULL DEFAULT now())');
 
   const pool = new pg.Pool({ connectionString: config.DATABASE_URL, max: 10 });
-  const outer = express();
-  // The bare endpoint lives only here: JSON in, one INSERT, JSON out.
-  outer.post('/bare', express.json(), async (req, res) => {
+  // The bare endpoint lives only here, on the same app ahead of its middleware: JSON in, one
+  // INSERT, JSON out.
+  const app = createApp(runtime.deps, (first) => first.post('/bare', express.json(), async (req, res) => {
     const body = req.body as { id: string; diagnosisId: string };
     await pool.query('INSERT INTO perf_bare_steps (id, diagnosis_id, body) VALUES ($1, $2, $3)', [body.id, body.diagnosisId, body]);
     res.status(201).json({ id: body.id });
-  });
-  outer.use(createApp(runtime.deps));
-  const server = outer.listen(0, '127.0.0.1');
+  }));
+  const server = app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));
   const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   return { runtime, pool, server, base, diagnoses };
