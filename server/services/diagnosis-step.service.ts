@@ -52,17 +52,20 @@ const HEAD_SQL = `
 // one statement (so one transaction); nothing is written once the diagnosis has ended.
 const WRITE_SQL = `
   WITH live AS (
-    SELECT 1 FROM diagnoses WHERE id = $3::uuid AND status = 'active' AND updated_at = $23::timestamptz
+    SELECT procedure_version_id, started_at, technician_id FROM diagnoses
+     WHERE id = $3::uuid AND status = 'active' AND updated_at = $23::timestamptz
   ), sup AS (
     UPDATE diagnosis_steps SET superseded = true
      WHERE diagnosis_id = $3::uuid AND $19::int IS NOT NULL AND seq >= $19::int AND NOT superseded
        AND EXISTS (SELECT 1 FROM live)
   ), ins AS (
     INSERT INTO diagnosis_steps (id, shop_id, diagnosis_id, seq, step_id, kind, shown, entered, value, unit, verdict,
-                                 band_id, answer_id, note, started_at, answered_at, payload_hash, next_step_id)
+                                 band_id, answer_id, note, started_at, answered_at, payload_hash, next_step_id,
+                                 dx_version_id, dx_started_at, dx_technician_id)
     SELECT $1::uuid, $2::uuid, $3::uuid, $4::int, $5::text, $6::text, $7::jsonb, $8::text, $9::float8, $10::text, $11::text,
-           $12::text, $13::text, $14::text, $15::timestamptz, $16::timestamptz, $17::text, $18::text
-     WHERE EXISTS (SELECT 1 FROM live)
+           $12::text, $13::text, $14::text, $15::timestamptz, $16::timestamptz, $17::text, $18::text,
+           live.procedure_version_id, live.started_at, live.technician_id
+      FROM live
     ON CONFLICT (id) DO NOTHING
     RETURNING id
   ), touched AS (

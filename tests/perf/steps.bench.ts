@@ -5,9 +5,9 @@
 import { randomUUID } from 'node:crypto';
 import { fork, type ChildProcess } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import inspector from 'node:inspector/promises';
-import { tmpdir } from 'node:os';
+import { cpus, tmpdir } from 'node:os';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 import express from 'express';
@@ -122,8 +122,9 @@ function run(opts: { url: string; sessions?: { cookie: string; csrf: string }[];
   });
 }
 
-const summary = (name: string, r: autocannon.Result & { cpuUs: number }) =>
-  `${name.padEnd(6)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   server CPU ${r.cpuUs.toFixed(0).padStart(4)} µs/req   errors ${r.errors}   non-2xx ${r.non2xx}`;
+const summary = (name: string, r: Measured) =>
+  `${name.padEnd(6)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   `
+  + `CPU/req server ${r.cpuUs.toFixed(0).padStart(4)} µs, PostgreSQL ${r.postgresUs >= 0 ? r.postgresUs.toFixed(0).padStart(4) : ' n/a'} µs, machine ${r.machineUs.toFixed(0).padStart(4)} µs   errors ${r.errors}   non-2xx ${r.non2xx}`;
 
 /** The server side: its own process, so autocannon does not share its event loop. */
 async function serve(): Promise<void> {
@@ -161,10 +162,38 @@ function serverCpu(child: ChildProcess): Promise<number> {
 }
 
 /** One autocannon run with the server's CPU time per request it answered. */
-async function measured(child: ChildProcess, go: () => Promise<autocannon.Result>): Promise<autocannon.Result & { cpuUs: number }> {
-  const before = await serverCpu(child);
+/** Busy CPU time of the whole machine so far (µs), from /proc/stat: server, PostgreSQL, autocannon. */
+function machineCpu(): number {
+  const [, ...ticks] = readFileSync('/proc/stat', 'utf8').split('\n')[0]!.trim().split(/\s+/).map(Number);
+  const idle = ticks[3]! + ticks[4]!; // idle + iowait
+  return ((ticks.slice(0, 8).reduce((a, b) => a + b, 0) - idle) * 1e6) / 100; // USER_HZ is 100 on Linux
+}
+
+/**
+ * CPU time of the PostgreSQL processes running now (µs), from /proc/<pid>/stat. A backend that
+ * closed during a run takes its time with it (the figure is then n/a).
+ */
+function postgresCpu(): number {
+  let ticks = 0;
+  for (const pid of readdirSync('/proc').filter((d) => /^\d+$/.test(d))) {
+    try {
+      const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+      if (!stat.includes('(postgres)')) continue;
+      const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      ticks += Number(f[11]) + Number(f[12]); // utime, stime
+    } catch { /* the process ended */ }
+  }
+  return (ticks * 1e6) / 100;
+}
+
+interface Measured extends autocannon.Result { cpuUs: number; machineUs: number; postgresUs: number }
+
+/** One autocannon run with the CPU time per answered request: the server's and the machine's. */
+async function measured(child: ChildProcess, go: () => Promise<autocannon.Result>): Promise<Measured> {
+  const [before, machine, postgres] = [await serverCpu(child), machineCpu(), postgresCpu()];
   const result = await go();
-  return { ...result, cpuUs: (await serverCpu(child) - before) / Math.max(1, result.requests.total) };
+  const per = (us: number) => us / Math.max(1, result.requests.total);
+  return { ...result, cpuUs: per(await serverCpu(child) - before), machineUs: per(machineCpu() - machine), postgresUs: per(postgresCpu() - postgres) };
 }
 
 function ask(child: ChildProcess, message: string, answer: string): Promise<void> {
@@ -212,6 +241,9 @@ async function main(): Promise<void> {
     console.log(summary('floor', floor), '  (GET /api/shop/meters: session + sign-in lookups + one query)');
     console.log(summary('me', me), '  (GET /api/auth/me: session + sign-in lookup + memberships)');
     console.log(`ratio  ${(100 * ratio).toFixed(1)} % of the bare throughput; ${stored!.n} steps stored over ${stored!.per} diagnoses`);
+    // Little's law: with every connection always waiting, mean latency = connections / throughput.
+    const mean = (r: autocannon.Result) => ((1000 * CONNECTIONS) / r.requests.average).toFixed(0);
+    console.log(`mean latency at ${CONNECTIONS} connections (Little's law): bare ${mean(bare)} ms, steps ${mean(steps)} ms; machine: ${cpus().length} CPUs shared by the server, PostgreSQL and autocannon`);
     const ok = ratio >= 0.5 && steps.latency.p99 < 50 && steps.errors === 0 && steps.non2xx === 0;
     console.log(ok ? 'targets met (≥ 50 %, p99 < 50 ms, no errors)' : 'TARGETS MISSED (≥ 50 %, p99 < 50 ms, no errors)');
     process.exitCode = ok ? 0 : 1;
