@@ -1,3 +1,5 @@
+import { PNG } from 'pngjs';
+import jsQR from 'jsqr';
 import { test, expect, type Browser, type Page, type BrowserContext } from '@playwright/test';
 import { deflateSync } from 'node:zlib';
 import { signIn, shot, axe, DEMO_PASSWORD } from './helpers';
@@ -202,7 +204,7 @@ test('a diagnosis started on one phone can be continued on another', async ({ pa
   await other.close();
 });
 
-test('a printed job card carries a plain link that opens the start with machine and procedure picked', async ({ page }) => {
+test('a printed job card carries a QR code and a link that open the start with machine and procedure picked', async ({ page }) => {
   await signIn(page, 'tech');
   const res = await page.request.get('/api/vehicles');
   const vehicles = await res.json() as { id: string; label: string }[];
@@ -211,8 +213,14 @@ test('a printed job card carries a plain link that opens the start with machine 
   await page.goto(`/bench/job-card?vehicle=${w02.id}&procedure=no-spark`);
   const link = page.getByTestId('job-link');
   await expect(link).toContainText(`/bench/start?vehicle=${w02.id}&procedure=no-spark`);
+  const url = (await link.textContent())!.trim();
+  // The QR code as the page draws it, read back with a QR decoder: a phone camera reads the same.
+  const qr = page.getByTestId('job-qr');
+  await expect(qr).toBeVisible();
+  const png = PNG.sync.read(await qr.screenshot());
+  expect(jsQR(new Uint8ClampedArray(png.data), png.width, png.height)?.data).toBe(url);
   await shot(page, 'bench-job-card');
-  await page.goto((await link.textContent())!.trim());
+  await page.goto(url);
   await expect(page.getByRole('radio', { name: /^No spark/ })).toBeChecked();
   await expect(page.getByLabel('Machine', { exact: true })).toHaveValue(w02.id);
 });
