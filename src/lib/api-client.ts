@@ -25,8 +25,10 @@ export function setCsrfToken(token: string | null): void {
   csrfToken = token;
 }
 
+const offline = () => new ApiError(0, 'network', 'No connection to the server. Your work is kept on this device.');
+
 async function fetchCsrf(): Promise<string> {
-  const res = await fetch('/api/auth/csrf', { credentials: 'same-origin' });
+  const res = await fetch('/api/auth/csrf', { credentials: 'same-origin' }).catch(() => { throw offline(); });
   if (!res.ok) throw await toApiError(res);
   csrfToken = ((await res.json()) as { token: string }).token;
   return csrfToken;
@@ -60,7 +62,7 @@ async function send<T>(method: Method, url: string, body?: unknown, retried = fa
       body: body === undefined ? undefined : isForm ? (body as FormData) : JSON.stringify(body),
     });
   } catch {
-    throw new ApiError(0, 'network', 'No connection to the server. Your work is kept on this device.');
+    throw offline();
   }
   if (res.status === 403 && method !== 'GET' && !retried) {
     const err = await toApiError(res.clone());

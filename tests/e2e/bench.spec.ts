@@ -204,6 +204,46 @@ test('a diagnosis started on one phone can be continued on another', async ({ pa
   await other.close();
 });
 
+/** How many procedure versions this phone keeps in IndexedDB. */
+const keptVersions = (page: Page) => page.evaluate(() => new Promise<number>((resolve) => {
+  const open = indexedDB.open('sparkwright-bench');
+  open.onsuccess = () => {
+    const db = open.result;
+    if (!db.objectStoreNames.contains('versions')) { db.close(); resolve(0); return; }
+    const count = db.transaction('versions').objectStore('versions').count();
+    count.onsuccess = () => { db.close(); resolve(count.result); };
+  };
+}));
+
+test('without signal a diagnosis still starts from what the phone kept, and reaches the server when signal returns', async ({ page, context }) => {
+  test.setTimeout(120_000);
+  await signIn(page, 'tech');
+  await serviceWorkerReady(page);
+  await page.getByRole('link', { name: 'Start a diagnosis' }).click();
+  await expect(page.getByRole('radio', { name: /^No spark/ })).toBeVisible();
+  await expect.poll(() => keptVersions(page), { timeout: 20_000 }).toBeGreaterThanOrEqual(3); // the demo's three procedures
+
+  await goOffline(context, page);
+  await page.reload();
+  await page.getByLabel('Symptom').fill('spark');
+  await page.getByRole('radio', { name: /^No spark/ }).check();
+  await page.getByLabel('Machine', { exact: true }).selectOption({ label: 'W-02 — Wren 50 two-stroke scooter' });
+  await page.getByLabel("Complaint in the customer's words").fill('Died at the lights, no spark since');
+  await page.getByRole('button', { name: 'Start the diagnosis' }).click();
+  await expect(page).toHaveURL(/\/bench\/d\/[0-9a-f-]{36}$/);
+  const id = page.url().split('/').pop()!;
+  await page.getByRole('button', { name: 'Done' }).click();
+  await expect(page.getByRole('heading', { name: 'Spark test' })).toBeVisible();
+  await expect(page.getByTestId('sync-status')).toContainText('2 waiting to sync'); // the start and one step
+  await shot(page, 'bench-offline-start');
+
+  await goOnline(context, page);
+  await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
+  const rec = await (await page.request.get(`/api/diagnoses/${id}`)).json() as { complaint: string; steps: { stepId: string }[] };
+  expect(rec.complaint).toBe('Died at the lights, no spark since');
+  expect(rec.steps.map((s) => s.stepId)).toEqual(['prepare']);
+});
+
 test('a printed job card carries a QR code and a link that open the start with machine and procedure picked', async ({ page }) => {
   await signIn(page, 'tech');
   const res = await page.request.get('/api/vehicles');

@@ -41,8 +41,12 @@ export type OutboxMessage =
 
 export interface OutboxItem { seq?: number; diagnosisId: string; message: OutboxMessage; refused?: string; createdAt: string }
 
+/** Lists the start page needs (procedures, machines, meters), as last fetched with signal. */
+export interface KitEntry { key: string; data: unknown; savedAt: string }
+
 interface BenchDb extends DBSchema {
   versions: { key: string; value: LocalVersion };
+  kit: { key: string; value: KitEntry };
   diagnoses: { key: string; value: LocalDiagnosis };
   outbox: { key: number; value: OutboxItem; indexes: { byDiagnosis: string } };
 }
@@ -51,12 +55,14 @@ let dbPromise: Promise<IDBPDatabase<BenchDb>> | null = null;
 
 /** The Bench database on this phone (IndexedDB through idb). */
 export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
-  dbPromise ??= openDB<BenchDb>('sparkwright-bench', 1, {
+  dbPromise ??= openDB<BenchDb>('sparkwright-bench', 2, {
+    // Each store is made when missing, so any earlier version of this database upgrades.
     upgrade(db) {
-      db.createObjectStore('versions', { keyPath: 'id' });
-      db.createObjectStore('diagnoses', { keyPath: 'id' });
-      const outbox = db.createObjectStore('outbox', { keyPath: 'seq', autoIncrement: true });
-      outbox.createIndex('byDiagnosis', 'diagnosisId');
+      const has = (name: string) => db.objectStoreNames.contains(name as never);
+      if (!has('versions')) db.createObjectStore('versions', { keyPath: 'id' });
+      if (!has('diagnoses')) db.createObjectStore('diagnoses', { keyPath: 'id' });
+      if (!has('outbox')) db.createObjectStore('outbox', { keyPath: 'seq', autoIncrement: true }).createIndex('byDiagnosis', 'diagnosisId');
+      if (!has('kit')) db.createObjectStore('kit', { keyPath: 'key' });
     },
   });
   return dbPromise;
@@ -67,6 +73,17 @@ export async function saveVersion(v: LocalVersion): Promise<void> {
 }
 export async function getVersion(id: string): Promise<LocalVersion | undefined> {
   return (await benchDb()).get('versions', id);
+}
+/** The newest version of a procedure kept on this phone, by the procedure's slug. */
+export async function findVersionBySlug(slug: string): Promise<LocalVersion | undefined> {
+  const all = await (await benchDb()).getAll('versions');
+  return all.filter((v) => v.slug === slug).sort((a, b) => b.number - a.number)[0];
+}
+export async function saveKit(key: string, data: unknown): Promise<void> {
+  await (await benchDb()).put('kit', { key, data, savedAt: new Date().toISOString() });
+}
+export async function readKit(key: string): Promise<KitEntry | undefined> {
+  return (await benchDb()).get('kit', key);
 }
 export async function getLocalDiagnosis(id: string): Promise<LocalDiagnosis | undefined> {
   return (await benchDb()).get('diagnoses', id);

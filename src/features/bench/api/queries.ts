@@ -1,16 +1,24 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api, qs } from '../../../lib/api-client';
+import { keptOnPhone } from '../lib/kit';
 import type { BenchProcedure, DiagnosisRecord, DiagnosisSummary, Meter, Vehicle } from './types';
 
 /** Every Bench query key and fetcher, in one place. */
 export const benchQueries = {
   all: ['bench'] as const,
-  procedures: (f: { symptom?: string; ignitionSystem?: string } = {}) => queryOptions({
-    queryKey: [...benchQueries.all, 'procedures', f] as const,
-    queryFn: () => api.get<BenchProcedure[]>(`/api/bench/procedures${qs(f)}`),
+  /** Every published procedure (filtered on the phone), kept for starting without signal. */
+  procedures: () => queryOptions({
+    queryKey: [...benchQueries.all, 'procedures'] as const,
+    queryFn: () => keptOnPhone('procedures', () => api.get<BenchProcedure[]>('/api/bench/procedures')),
   }),
-  vehicles: () => queryOptions({ queryKey: [...benchQueries.all, 'vehicles'] as const, queryFn: () => api.get<Vehicle[]>('/api/vehicles') }),
-  meters: () => queryOptions({ queryKey: [...benchQueries.all, 'meters'] as const, queryFn: () => api.get<Meter[]>('/api/shop/meters') }),
+  vehicles: () => queryOptions({
+    queryKey: [...benchQueries.all, 'vehicles'] as const,
+    queryFn: () => keptOnPhone('vehicles', () => api.get<Vehicle[]>('/api/vehicles')),
+  }),
+  meters: () => queryOptions({
+    queryKey: [...benchQueries.all, 'meters'] as const,
+    queryFn: () => keptOnPhone('meters', () => api.get<Meter[]>('/api/shop/meters')),
+  }),
   diagnoses: (status?: string) => queryOptions({
     queryKey: [...benchQueries.all, 'diagnoses', status ?? 'all'] as const,
     queryFn: () => api.get<DiagnosisSummary[]>(`/api/diagnoses${qs({ status, mine: 1 })}`),

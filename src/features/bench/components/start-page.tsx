@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useEffect, useMemo, useState, type FormEvent } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { api, ApiError } from '../../../lib/api-client';
@@ -9,6 +9,7 @@ import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
 import type { Meter, Vehicle } from '../api/types';
 import { startDiagnosis, type StartForm } from '../lib/start';
+import { filterProcedures, keepVersions } from '../lib/kit';
 
 const IGNITION = [['', 'Any ignition'], ['magneto-cdi', 'Magneto CDI'], ['battery-cdi', 'Battery CDI'], ['magneto-inductive', 'Magneto inductive'], ['battery-inductive', 'Battery inductive']] as const;
 
@@ -37,7 +38,10 @@ type SetField = (k: keyof StartForm) => (e: { target: { value: string } }) => vo
 
 function ProcedureFieldset({ slug, set }: { slug: string; set: SetField }) {
   const [filter, setFilter] = useState({ symptom: '', ignitionSystem: '' });
-  const procedures = useQuery(benchQueries.procedures(filter));
+  const all = useQuery(benchQueries.procedures());
+  const procedures = { data: useMemo(() => (all.data ? filterProcedures(all.data, filter) : undefined), [all.data, filter]) };
+  // With signal, keep each published version on the phone, so a later start needs none.
+  useEffect(() => { if (all.data && all.isFetchedAfterMount && navigator.onLine) void keepVersions(all.data).catch(() => undefined); }, [all.data, all.isFetchedAfterMount]);
   return (
     <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
       <legend className="px-1 text-lg font-bold">Procedure</legend>
@@ -95,7 +99,8 @@ export function StartPage() {
       const id = await startDiagnosis(form, vehicles.data?.find((v) => v.id === form.vehicleId), meters.data?.find((m) => m.id === meterId));
       navigate(`/bench/d/${id}`);
     } catch (err) {
-      setError(err instanceof ApiError ? err.message + (err.issues.length ? ` (${err.issues.map((i) => i.message).join('; ')})` : '') : 'Could not start the diagnosis.');
+      if (err instanceof ApiError) setError(err.message + (err.issues.length ? ` (${err.issues.map((i) => i.message).join('; ')})` : ''));
+      else setError(err instanceof Error ? err.message : 'Could not start the diagnosis.');
     }
   };
 

@@ -8,7 +8,7 @@ export function SyncBadge() {
   if (s.refused) {
     return (
       <div role="alert" className="rounded-lg border-2 border-stop bg-stop-soft p-3 text-ink">
-        <p className="font-bold text-stop">Not synced: the server refused a step</p>
+        <p className="font-bold text-stop">Not synced: the server refused what this phone sent</p>
         <p>{s.refused}</p>
         <button type="button" onClick={() => void retryRefused()} className="mt-2 min-h-12 rounded-lg border-2 border-ink bg-panel px-4 font-semibold">Try again</button>
       </div>

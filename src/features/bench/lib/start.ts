@@ -1,7 +1,8 @@
 import { api } from '../../../lib/api-client';
-import { commitLocal, saveVersion } from '../../../lib/offline/db';
+import { commitLocal, findVersionBySlug, saveVersion, type LocalVersion } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
 import type { BenchVersion, Meter, Vehicle } from '../api/types';
+import { isOffline } from './kit';
 
 export interface StartForm {
   slug: string; vehicleId: string; meterId: string; complaint: string;
@@ -10,24 +11,48 @@ export interface StartForm {
 
 const decimal = (s: string) => Number(s.replace(',', '.'));
 
+/** The latest published version, from the server with signal, else the one kept on the phone. */
+async function versionFor(slug: string): Promise<LocalVersion> {
+  try {
+    const version = await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(slug)}`);
+    await saveVersion(version);
+    return version;
+  } catch (e) {
+    const kept = isOffline(e) ? await findVersionBySlug(slug) : undefined;
+    if (!kept) {
+      throw isOffline(e)
+        ? new Error('No signal, and this procedure has not been kept on this phone yet. Open the start page once where there is signal.')
+        : e;
+    }
+    return kept;
+  }
+}
+
 /**
- * Starts a diagnosis: caches the pinned version on the phone, has the server check the start
- * while there is signal (so a typo cannot block the outbox later), and keeps it in IndexedDB.
+ * Starts a diagnosis and keeps it in IndexedDB. With signal the server checks the start first, so
+ * a mistake shows here rather than blocking the outbox later. Without signal the start waits in
+ * the outbox ahead of the steps, and the diagnosis runs on the version kept on the phone.
  * Returns the new diagnosis id.
  */
 export async function startDiagnosis(form: StartForm, vehicle: Vehicle | undefined, meter: Meter | undefined): Promise<string> {
-  const version = await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(form.slug)}`);
-  await saveVersion(version);
+  const version = await versionFor(form.slug);
   const id = crypto.randomUUID();
   const now = new Date().toISOString();
-  await api.post('/api/diagnoses', {
+  const body = {
     id, procedureVersionId: version.id, vehicleId: form.vehicleId, meterId: meter?.id ?? null, complaint: form.complaint, startedAt: now,
     conditions: { engine: form.engine, ambientC: decimal(form.ambientC), startingMethod: form.startingMethod, batteryVolts: form.batteryVolts ? decimal(form.batteryVolts) : null },
-  });
+  };
+  let queued = false;
+  try {
+    await api.post('/api/diagnoses', body);
+  } catch (e) {
+    if (!isOffline(e)) throw e;
+    queued = true;
+  }
   await commitLocal({
     id, versionId: version.id, procedureTitle: version.title, vehicleLabel: vehicle?.label ?? '', meterEntries: meter?.spec.entries ?? [],
     startedAt: now, rows: [], photos: [], status: 'active', updatedAt: now,
-  }, []);
+  }, queued ? [{ kind: 'start', body }] : []);
   void flushOutbox();
   return id;
 }

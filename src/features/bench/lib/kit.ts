@@ -1,0 +1,39 @@
+import { api, ApiError } from '../../../lib/api-client';
+import { getVersion, readKit, saveKit, saveVersion } from '../../../lib/offline/db';
+import type { BenchProcedure, BenchVersion } from '../api/types';
+
+// What a phone needs to start a diagnosis without signal: the published procedures with their
+// pinned versions, the shop's machines and its meters, as last fetched with signal.
+
+const isOffline = (e: unknown) => e instanceof ApiError && e.isNetwork;
+
+/** Fetches with signal and keeps a copy on the phone; without signal, answers the copy. */
+export async function keptOnPhone<T>(key: string, fetcher: () => Promise<T>): Promise<T> {
+  try {
+    const data = await fetcher();
+    await saveKit(key, data).catch(() => undefined); // a phone without IndexedDB still works online
+    return data;
+  } catch (e) {
+    if (!isOffline(e)) throw e;
+    const kept = await readKit(key).catch(() => undefined);
+    if (!kept) throw e;
+    return kept.data as T;
+  }
+}
+
+/** Keeps each listed version on the phone, fetching only those it does not have yet. */
+export async function keepVersions(list: readonly BenchProcedure[]): Promise<void> {
+  for (const p of list) {
+    if (await getVersion(p.versionId)) continue;
+    await saveVersion(await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(p.slug)}`));
+  }
+}
+
+/** The server's filter, on the phone: symptom or title contains the words; ignition system equal. */
+export function filterProcedures(list: readonly BenchProcedure[], f: { symptom: string; ignitionSystem: string }): BenchProcedure[] {
+  const words = f.symptom.trim().toLowerCase();
+  return list.filter((p) => (!words || p.symptom.toLowerCase().includes(words) || p.title.toLowerCase().includes(words))
+    && (!f.ignitionSystem || p.ignitionSystem === f.ignitionSystem));
+}
+
+export { isOffline };
