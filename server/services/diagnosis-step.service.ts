@@ -16,8 +16,6 @@ export interface StepResult {
 }
 
 interface Head {
-  /** diagnoses.updated_at as text (microseconds kept): the write goes ahead only if it is unchanged. */
-  stamp: string;
   status: string; technician_id: string; procedure_version_id: string; max_seq: number;
   meter: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] | null;
   path: PathRow[];
@@ -34,11 +32,11 @@ export function payloadHash(input: unknown): string {
 }
 
 // One statement reads everything the decision needs. It takes no lock: the write below is one
-// atomic statement that goes ahead only while the diagnosis is unchanged since this read (its
-// updated_at), and the unique (diagnosis_id, seq) index backs that up; a concurrent change makes
-// the step be decided again on a fresh read, so seq stays dense and the path consistent.
+// atomic statement, and every change to a path is an insert at max(seq) + 1 (superseding rides
+// along), so the unique (diagnosis_id, seq) index turns any change since this read into a
+// conflict; the step is then decided again on a fresh read, so seq stays dense and the path true.
 const HEAD_SQL = `
-  SELECT d.updated_at::text AS stamp, d.status, d.technician_id, d.procedure_version_id, m.spec->'entries' AS meter,
+  SELECT d.status, d.technician_id, d.procedure_version_id, m.spec->'entries' AS meter,
     (SELECT coalesce(max(seq), 0) FROM diagnosis_steps WHERE diagnosis_id = d.id) AS max_seq,
     (SELECT coalesce(json_agg(json_build_object('id', s.id, 'seq', s.seq, 'stepId', s.step_id, 'next', s.next_step_id, 'entered', s.entered,
         'lead', s.shown->>'leadEntered', 'answerId', s.answer_id, 'acknowledged', coalesce((s.shown->>'acknowledged')::boolean, false)) ORDER BY s.seq), '[]')
@@ -48,17 +46,24 @@ const HEAD_SQL = `
   FROM diagnoses d LEFT JOIN meters m ON m.id = d.meter_id
   WHERE d.id = $1::uuid AND d.shop_id = $2::uuid`;
 
-// Supersedes the abandoned tail of the path, stores the step once and touches the diagnosis, in
-// one statement (so one transaction); nothing is written once the diagnosis has ended.
-const WRITE_SQL = `
+// Supersedes the abandoned tail of the path, stores the step once and, when the step ends the
+// diagnosis or its last activity is a minute old, updates the diagnosis, in one statement (so one
+// transaction); nothing is written once the diagnosis has ended. Last activity to the minute is
+// plenty for the abandon sweep (hours) and the lists, and spares a row version per step.
+/**
+ * The write, in two shapes: going back supersedes the tail of the path from seq $22 first;
+ * answering the step the path stands at (nearly every request) has no such part, so PostgreSQL
+ * keeps one generic plan for it instead of planning each execution.
+ */
+function writeSql(goingBack: boolean): string {
+  return `
   WITH live AS (
     SELECT procedure_version_id, started_at, technician_id FROM diagnoses
-     WHERE id = $3::uuid AND status = 'active' AND updated_at = $23::timestamptz
-  ), sup AS (
+     WHERE id = $3::uuid AND status = 'active'
+  ), ${goingBack ? `sup AS (
     UPDATE diagnosis_steps SET superseded = true
-     WHERE diagnosis_id = $3::uuid AND $19::int IS NOT NULL AND seq >= $19::int AND NOT superseded
-       AND EXISTS (SELECT 1 FROM live)
-  ), ins AS (
+     WHERE diagnosis_id = $3::uuid AND seq >= $22::int AND NOT superseded AND EXISTS (SELECT 1 FROM live)
+  ), ` : ''}ins AS (
     INSERT INTO diagnosis_steps (id, shop_id, diagnosis_id, seq, step_id, kind, shown, entered, value, unit, verdict,
                                  band_id, answer_id, note, started_at, answered_at, payload_hash, next_step_id,
                                  dx_version_id, dx_started_at, dx_technician_id)
@@ -70,12 +75,14 @@ const WRITE_SQL = `
     RETURNING id
   ), touched AS (
     UPDATE diagnoses SET last_activity_at = now(), updated_at = now(),
-           status = coalesce($20::text, status), ending_step_id = coalesce($21::text, ending_step_id),
-           outcome = coalesce($22::jsonb, outcome), ended_at = CASE WHEN $20::text IS NULL THEN ended_at ELSE $16::timestamptz END
+           status = coalesce($19::text, status), ending_step_id = coalesce($20::text, ending_step_id),
+           outcome = coalesce($21::jsonb, outcome), ended_at = CASE WHEN $19::text IS NULL THEN ended_at ELSE $16::timestamptz END
      WHERE id = $3::uuid AND EXISTS (SELECT 1 FROM ins)
-    RETURNING updated_at::text AS stamp
+       AND ($19::text IS NOT NULL OR last_activity_at < now() - interval '1 minute')
   )
-  SELECT (SELECT count(*) FROM ins)::int AS inserted, (SELECT stamp FROM touched) AS stamp`;
+  SELECT count(*)::int AS inserted FROM ins`;
+}
+const WRITE_SQL = { forward: writeSql(false), back: writeSql(true) };
 
 interface PgClient { query<R>(q: { name: string; text: string; values: unknown[] }): Promise<{ rows: R[] }> }
 
@@ -130,13 +137,14 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
   const { decided, walk } = decideStep(prior?.doc ?? withMeter(version.document, head.meter ?? []), version.steps, keep, input, prior);
   const { endStatus, outcome } = outcomeFor(step.kind, input);
   const seq = Number(head.max_seq) + 1;
-  const { rows: [written] } = await onPooledClient(deps, (c) => c.query<{ inserted: number; stamp: string | null }>({
-    name: 'bench-step-write', text: WRITE_SQL,
+  const goingBack = keep.length < head.path.length;
+  const { rows: [written] } = await onPooledClient(deps, (c) => c.query<{ inserted: number }>({
+    name: goingBack ? 'bench-step-write-back' : 'bench-step-write', text: goingBack ? WRITE_SQL.back : WRITE_SQL.forward,
     values: [
       input.id, ctx.shopId, diagnosisId, seq, step.id, step.kind, JSON.stringify(decided.shown), decided.entered, decided.value,
       decided.unit, decided.verdict, decided.bandId, decided.answerId, input.note, input.startedAt, input.answeredAt, hash, decided.next,
-      keep.length < head.path.length ? head.path[keep.length]!.seq : null, endStatus, endStatus ? step.id : null, outcome,
-      head.stamp,
+      endStatus, endStatus ? step.id : null, outcome,
+      ...(goingBack ? [head.path[keep.length]!.seq] : []),
     ],
   }));
   // Nothing stored: the diagnosis ended, or the same id arrived at the same moment. Read again.
@@ -149,14 +157,14 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
     id: input.id, seq, stepId: step.id, next: decided.next, entered: decided.entered,
     lead: input.leadEntered || null, answerId: decided.answerId, acknowledged: input.acknowledged,
   };
-  const after: Head = { ...head, stamp: written.stamp!, status: result.status, max_seq: seq, path: [...keep, row], walk, existing: null };
+  const after: Head = { ...head, status: result.status, max_seq: seq, path: [...keep, row], walk, existing: null };
   return { result, after, handoff: step.kind === 'handoff' };
 }
 
 /**
  * The head of each diagnosis being stepped in this process, as it stood after its last write here:
- * the next step skips the read. The write checks the stamp, so a head that went stale (another
- * server, the abandon sweep) only costs a fresh read.
+ * the next step skips the read. A head gone stale (a step recorded by another server makes the
+ * seq conflict; the abandon sweep fails the write's status check) only costs a fresh read.
  */
 const heads = new LRUCache<string, { shopId: string; head: Head }>({ max: 5_000, ttl: 15 * 60_000 });
 

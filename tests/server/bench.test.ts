@@ -160,18 +160,37 @@ describe('stepping through the pinned version', () => {
     expect(sql[0]).toMatch(/INSERT INTO diagnosis_steps/);
   });
 
-  it('a diagnosis changed elsewhere since its last step here (another app server) costs one fresh read, and the step still lands in order', async () => {
+  it('a step another app server recorded meanwhile costs one fresh read here, and the answer still lands in order', async () => {
     const id = await start();
     const a = await step(id, 'killLead', null);
-    // what another server's write looks like from here: the row moved on without this process
-    await env.runtime.deps.sequelize.query(`UPDATE diagnoses SET updated_at = now() WHERE id = :id`, { replacements: { id } });
+    // What another server's write looks like from here: the next row appeared without this process.
+    await env.runtime.deps.sequelize.query(
+      `INSERT INTO diagnosis_steps (id, shop_id, diagnosis_id, seq, step_id, kind, shown, note, started_at, answered_at, payload_hash, answer_id, next_step_id)
+       SELECT gen_random_uuid(), shop_id, diagnosis_id, 2, 'sparkTest', 'observation', shown, '', now(), now(), 'elsewhere', 'strong', 'plugFinding'
+         FROM diagnosis_steps WHERE id = :a`, { replacements: { a: a.id } });
     let b: Awaited<ReturnType<typeof step>> | undefined;
     const sql = await statementsDuring(async () => { b = await step(id, 'sparkTest', a.id, { answerId: 'none' }); });
-    expect(sql.filter((s) => /INSERT INTO diagnosis_steps/.test(s)), sql.join('\n---\n')).toHaveLength(2); // refused, then stored
+    expect(sql.filter((s) => /INSERT INTO diagnosis_steps/.test(s)), sql.join('\n---\n')).toHaveLength(2); // a seq conflict, then stored
     expect(sql.filter((s) => /FROM diagnoses d LEFT JOIN meters/.test(s))).toHaveLength(1);
-    expect(b!.seq).toBe(2);
+    expect(b!.seq).toBe(3);
+    // this answer follows killLead, so the other server's sparkTest answer is superseded by it
     const rows = await DiagnosisStep.findAll({ where: { diagnosisId: id }, order: [['seq', 'ASC']] });
-    expect(rows.map((r) => [r.seq, r.stepId, r.superseded])).toEqual([[1, 'killLead', false], [2, 'sparkTest', false]]);
+    expect(rows.map((r) => [r.seq, r.stepId, r.answerId, r.superseded])).toEqual([
+      [1, 'killLead', null, false], [2, 'sparkTest', 'strong', true], [3, 'sparkTest', 'none', false],
+    ]);
+  });
+
+  it('a step updates the diagnosis itself only when its last activity is a minute old, or when it ends it', async () => {
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const touched = async () => (await Diagnosis.findByPk(id))!.lastActivityAt.getTime();
+    const first = await touched();
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    expect(await touched()).toBe(first);
+    await env.runtime.deps.sequelize.query(`UPDATE diagnoses SET last_activity_at = now() - interval '2 minutes' WHERE id = :id`, { replacements: { id } });
+    const stale = await touched();
+    await step(id, 'exciter', b.id, { entered: '150' });
+    expect(await touched()).toBeGreaterThan(stale + 60_000);
   });
 
   it('a diagnosis the abandon sweep ended while it was remembered here refuses the next step, and nothing is stored', async () => {
