@@ -1,29 +1,64 @@
 import { buildGraph, depthFirst, isBackEdge } from '@shared/engine';
-import type { ProcedureDocument } from '@shared/schema';
+import { handleOffset, nodeSize } from '@shared/engine/geometry';
+import { branchesOf, type ProcedureDocument, type Step } from '@shared/schema';
 
-const ROW = 170;
-const COLUMN = 290;
+const ROW_GAP = 70;
+const COLUMN_GAP = 50;
+
+const handlesOf = (s: Step) => branchesOf(s).length || (s.kind === 'task' || s.kind === 'formula' ? 1 : 0);
 
 /**
  * A readable top-down layout: each step sits one row below the deepest step that leads to it
- * (loop-closing branches ignored), and the steps of a row are centred side by side in the
- * order a depth-first walk meets them.
+ * (loop-closing branches ignored). Rows are placed top to bottom; within a row the steps are
+ * ordered by where the branches leading to them leave their parents (so branches do not cross
+ * under a step) and set as near below those branches as room for each box allows.
  */
 export function layoutTopDown(doc: ProcedureDocument): ProcedureDocument {
   const g = buildGraph(doc);
   const dfs = depthFirst(g, g.start);
-  const depth = new Int32Array(g.size);
+  const depth = new Map<string, number>();
+  for (const v of dfs.order) depth.set(g.steps[v]!.id, 0);
   for (const v of dfs.order) {
     for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) {
       const w = g.targets[e]!;
-      if (!isBackEdge(dfs, v, w)) depth[w] = Math.max(depth[w]!, depth[v]! + 1);
+      if (!isBackEdge(dfs, v, w)) depth.set(g.steps[w]!.id, Math.max(depth.get(g.steps[w]!.id)!, depth.get(g.steps[v]!.id)! + 1));
     }
   }
-  const rows = new Map<number, number[]>();
-  for (const v of dfs.order) rows.set(depth[v]!, [...(rows.get(depth[v]!) ?? []), v]);
-  const position = new Map<string, { x: number; y: number }>();
-  for (const [d, members] of rows) {
-    members.forEach((v, i) => position.set(g.steps[v]!.id, { x: Math.round((i - (members.length - 1) / 2) * COLUMN), y: d * ROW }));
+  const byId = new Map(doc.steps.map((s) => [s.id, s]));
+  const rows: Step[][] = [];
+  for (const v of dfs.order) (rows[depth.get(g.steps[v]!.id)!] ??= []).push(g.steps[v]!);
+
+  const centre = new Map<string, number>();
+  const top = new Map<string, number>();
+  let y = 0;
+  for (const row of rows) {
+    // where each step is pulled from: the mean x of the handles above that lead to it
+    const pull = new Map<string, number[]>();
+    for (const parent of doc.steps) {
+      const px = centre.get(parent.id);
+      if (px === undefined) continue;
+      const branches = branchesOf(parent);
+      branches.forEach((b, i) => { if (byId.has(b.to) && !centre.has(b.to)) pull.set(b.to, [...(pull.get(b.to) ?? []), px + handleOffset(i, branches.length)]); });
+    }
+    const mean = (id: string) => { const xs = pull.get(id); return xs ? xs.reduce((a, b) => a + b, 0) / xs.length : 0; };
+    const ordered = row.map((s, i) => ({ s, i, key: mean(s.id) })).sort((a, b) => a.key - b.key || a.i - b.i).map((x) => x.s);
+    // each step as near as it can be to its pull, side by side without overlap, then the row
+    // shifted so that it is, on average, centred on its pulls
+    const widths = ordered.map((s) => nodeSize(s.kind, handlesOf(s)).width);
+    const xs: number[] = [];
+    ordered.forEach((s, i) => {
+      const least = i === 0 ? -Infinity : xs[i - 1]! + widths[i - 1]! / 2 + COLUMN_GAP + widths[i]! / 2;
+      xs.push(Math.max(mean(s.id), least));
+    });
+    const drift = xs.reduce((a, x, i) => a + x - mean(ordered[i]!.id), 0) / xs.length;
+    ordered.forEach((s, i) => { centre.set(s.id, xs[i]! - drift); top.set(s.id, y); });
+    y += Math.max(...ordered.map((s) => nodeSize(s.kind, handlesOf(s)).height)) + ROW_GAP + 30; // + the handle labels
   }
-  return { ...doc, steps: doc.steps.map((s) => ({ ...s, position: position.get(s.id) ?? s.position })) };
+  return {
+    ...doc,
+    steps: doc.steps.map((s) => {
+      const c = centre.get(s.id);
+      return c === undefined ? s : { ...s, position: { x: Math.round(c - nodeSize(s.kind, handlesOf(s)).width / 2), y: top.get(s.id)! } };
+    }),
+  };
 }

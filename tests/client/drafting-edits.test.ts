@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import { lintProcedure } from '@shared/engine';
 import { doc, ohmsReading, observation, finding, task } from '../shared/fixtures';
 import { applyEdit, historyReducer, initialHistory, UNCONNECTED } from '../../src/features/drafting/lib/edits';
-import { toFlow, fromFlow } from '../../src/features/drafting/lib/flow';
+import { toFlow, fromFlow, openingView } from '../../src/features/drafting/lib/flow';
 import { copySteps, pasteSteps } from '../../src/features/drafting/lib/clipboard';
 import { diffDocuments } from '../../src/features/drafting/lib/diff';
 import { stepFor } from '../../src/features/drafting/lib/new-step';
@@ -123,5 +123,21 @@ describe('differences from the last published version', () => {
     expect(diff.removed).toEqual([{ id: 'shorted', title: 'Finding shorted' }]);
     expect(diff.changed.find((c) => c.id === 'openCoil')?.fields).toEqual(['title']);
     expect(diff.changed.find((c) => c.id === 'coilPrimary')?.fields).toEqual(['bands']);
+  });
+});
+
+describe('where the editor opens', () => {
+  it('frames the start step and its near neighbours at a readable zoom, not the whole procedure', () => {
+    const at = (y: number) => ({ position: { x: 0, y } });
+    const d = doc([
+      { ...task('prep', 'look'), ...at(0) },
+      { ...observation('look', { yes: 'ok', no: 'far' }), ...at(200) },
+      { ...finding('ok'), ...at(420) },
+      { ...finding("far"), ...at(2400) },
+    ]);
+    const view = openingView(d);
+    expect(view.nodes!.map((n) => n.id)).toEqual(['prep', 'look', 'ok']);
+    expect(view.minZoom).toBeGreaterThanOrEqual(0.5);
+    expect(view.maxZoom).toBe(1);
   });
 });

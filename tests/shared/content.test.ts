@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildGraph, depthFirst, isBackEdge, lintProcedure, pathFigures } from '@shared/engine';
-import { procedureDocumentSchema } from '@shared/schema';
+import { branchesOf, procedureDocumentSchema, type Step } from '@shared/schema';
+import { nodeSize } from '@shared/engine/geometry';
 import { DEMO_PROCEDURES } from '../../content';
 
 const text = (d: (typeof DEMO_PROCEDURES)[number]['document']) => JSON.stringify(d.steps).toLowerCase();
@@ -75,4 +76,36 @@ describe('demo procedures in content/', () => {
     expect(expressions.some((e) => e.startsWith('copper('))).toBe(true);
     expect(expressions.some((e) => e.includes('** 2'))).toBe(true);
   });
+});
+
+describe('the demo procedures open laid out', () => {
+  const box = (s: Step) => {
+    const handles = branchesOf(s).length || (s.kind === 'task' || s.kind === 'formula' ? 1 : 0);
+    const { width, height } = nodeSize(s.kind, handles);
+    return { x0: s.position.x, x1: s.position.x + width, y0: s.position.y, y1: s.position.y + height + 30 }; // + handle labels
+  };
+
+  for (const { slug, document: doc } of DEMO_PROCEDURES) {
+    it(`no two steps of "${slug}" overlap on the canvas`, () => {
+      const boxes = doc.steps.map((s) => ({ id: s.id, ...box(s) }));
+      const overlaps = boxes.flatMap((a, i) => boxes.slice(i + 1)
+        .filter((b) => a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1).map((b) => `${a.id} × ${b.id}`));
+      expect(overlaps).toEqual([]);
+    });
+
+    it(`in "${slug}", the steps right below a branching step are in the order of its handles`, () => {
+      const byId = new Map(doc.steps.map((s) => [s.id, s]));
+      const incoming = new Map<string, number>();
+      for (const s of doc.steps) for (const b of branchesOf(s)) incoming.set(b.to, (incoming.get(b.to) ?? 0) + 1);
+      for (const s of doc.steps) {
+        // a step that two handles lead to (low and high both to one finding), or that other steps
+        // lead to as well, sits between its pulls; the rest must not cross
+        const once = branchesOf(s).filter((b) => incoming.get(b.to) === 1);
+        const below = once.map((b) => byId.get(b.to)).filter((t): t is Step => !!t && t.position.y > s.position.y);
+        const nextRow = below.filter((t) => t.position.y === Math.min(...below.map((u) => u.position.y)));
+        const xs = [...new Set(nextRow)].map((t) => t.position.x);
+        expect(xs, `${s.id} → ${nextRow.map((t) => t.id).join(', ')}`).toEqual([...xs].sort((a, b) => a - b));
+      }
+    });
+  }
 });

@@ -1,4 +1,4 @@
-import type { Edge, Node } from '@xyflow/react';
+import type { Edge, FitViewOptions, Node } from '@xyflow/react';
 import { branchesOf, type ProcedureDocument, type Step } from '@shared/schema';
 import { setBranch } from './edits';
 
@@ -99,4 +99,15 @@ export function fromFlow(base: ProcedureDocument, nodes: readonly StepNode[], ed
     return step;
   });
   return { ...base, steps };
+}
+
+/**
+ * Where the canvas opens: the start step and what lies just below it, at a zoom that keeps step
+ * titles readable (a whole long procedure fitted at once is too small to read). Fit shows it all.
+ */
+export function openingView(doc: ProcedureDocument): FitViewOptions {
+  const start = doc.steps.find((s) => s.id === doc.start) ?? doc.steps[0];
+  if (!start) return { maxZoom: 1 };
+  const near = doc.steps.filter((s) => s.position.y >= start.position.y - 40 && s.position.y <= start.position.y + 760);
+  return { maxZoom: 1, minZoom: 0.6, padding: 0.1, nodes: near.map((s) => ({ id: s.id })) };
 }

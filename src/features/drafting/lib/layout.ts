@@ -1,15 +1,8 @@
 import type { ProcedureDocument, Position } from '@shared/schema';
 import { branchesOf } from '@shared/schema';
+import { nodeSize } from '@shared/engine/geometry';
 
-/** Width of a step node: room for every band or answer handle side by side. */
-export function nodeWidth(handles: number): number {
-  return Math.max(240, handles * 96 + 8);
-}
-
-/** Node box sizes the canvas draws (step-node.tsx), so the layout leaves room for the handles. */
-export function nodeSize(kind: string, handles: number): { width: number; height: number } {
-  return { width: nodeWidth(handles), height: kind === 'reading' || kind === 'observation' ? 150 : kind === 'task' || kind === 'formula' ? 110 : 80 };
-}
+export { nodeWidth, nodeSize } from '@shared/engine/geometry';
 
 /**
  * Layered top-down layout by ELK. elkjs is large, so it is imported only when an author asks for a

@@ -6,7 +6,7 @@ import {
 import '@xyflow/react/dist/style.css';
 import type { ProcedureDocument, StepKind } from '@shared/schema';
 import type { Edit } from '../../lib/edits';
-import { toFlow, type FlowMarks, type StepNode } from '../../lib/flow';
+import { openingView, toFlow, type FlowMarks, type StepNode } from '../../lib/flow';
 import { stepFor } from '../../lib/new-step';
 import { nodeTypes } from './step-node';
 import { KIND_TONE } from './step-glyphs';
@@ -26,6 +26,7 @@ interface Props {
 /** React Flow bound to the document: every change the canvas reports becomes one Edit. */
 export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }: Props) {
   const flow = useMemo(() => toFlow(doc, marks), [doc, marks]);
+  const [opening] = useState(() => openingView(doc)); // the first document only: edits never move the view
   // React Flow needs to move nodes while they are dragged; the document changes on drop.
   const [nodes, setNodes] = useState<StepNode[]>(flow.nodes);
   // Selection and measurements belong to React Flow: a document change keeps them, and a step
@@ -96,7 +97,7 @@ export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }
         multiSelectionKeyCode={['Shift', 'Meta', 'Control']}
         selectionKeyCode="Shift"
         fitView
-        fitViewOptions={{ maxZoom: 1 }}
+        fitViewOptions={opening}
         minZoom={0.1}
         maxZoom={2}
         proOptions={{ hideAttribution: true }}
