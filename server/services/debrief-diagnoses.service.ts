@@ -14,18 +14,16 @@ const SORT_SQL: Record<DiagnosisListQuery['sort'], string> = {
   technician: 'u.name',
 };
 
-const FLAGS_SQL = `
-  EXISTS (SELECT 1 FROM diagnosis_steps b WHERE b.diagnosis_id = d.id AND b.verdict IN ('borderline-low', 'borderline-high')) AS f_borderline,
-  EXISTS (SELECT 1 FROM diagnosis_steps b WHERE b.diagnosis_id = d.id AND b.superseded) AS f_taken_back,
-  (d.status <> 'active' AND EXISTS (SELECT 1 FROM diagnoses c WHERE c.shop_id = d.shop_id AND c.vehicle_id = d.vehicle_id
+// Each flag as a condition on a diagnoses row d; $2 is the shop's comeback window in days.
+const FLAG_SQL: Record<NonNullable<DiagnosisFilter['flag']>, string> = {
+  borderline: `EXISTS (SELECT 1 FROM diagnosis_steps b WHERE b.diagnosis_id = d.id AND b.verdict IN ('borderline-low', 'borderline-high'))`,
+  'taken-back': `EXISTS (SELECT 1 FROM diagnosis_steps b WHERE b.diagnosis_id = d.id AND b.superseded)`,
+  comeback: `(d.status <> 'active' AND EXISTS (SELECT 1 FROM diagnoses c WHERE c.shop_id = d.shop_id AND c.vehicle_id = d.vehicle_id
      AND c.started_at > COALESCE(d.ended_at, d.last_activity_at)
-     AND c.started_at <= COALESCE(d.ended_at, d.last_activity_at) + make_interval(days => $2::int))) AS f_comeback`;
-
-const FLAG_WHERE: Record<NonNullable<DiagnosisFilter['flag']>, string> = {
-  borderline: 'f_borderline',
-  'taken-back': 'f_taken_back',
-  comeback: 'f_comeback',
+     AND c.started_at <= COALESCE(d.ended_at, d.last_activity_at) + make_interval(days => $2::int)))`,
 };
+
+const FLAGS_SQL = `${FLAG_SQL.borderline} AS f_borderline, ${FLAG_SQL['taken-back']} AS f_taken_back, ${FLAG_SQL.comeback} AS f_comeback`;
 
 /** WHERE clause and binds; $1 is the shop and $2 the comeback days in every query built here. */
 function where(ctx: ShopContext, f: DiagnosisFilter, days: number): { clause: string; bind: unknown[] } {
@@ -46,6 +44,7 @@ function where(ctx: ShopContext, f: DiagnosisFilter, days: number): { clause: st
   const [from, to] = dayBounds(f);
   if (f.from) add('d.started_at >= ?::timestamptz', from);
   if (f.to) add('d.started_at < ?::timestamptz', to);
+  if (f.flag) parts.push(FLAG_SQL[f.flag]);
   return { clause: parts.join(' AND '), bind };
 }
 
@@ -87,25 +86,21 @@ function toRow(r: Record<string, unknown>, titles: Titles): DiagnosisRow {
 async function selectRows(sql: Sql, ctx: ShopContext, q: DiagnosisFilter & { sort?: DiagnosisListQuery['sort']; dir?: 'asc' | 'desc' }, tail: string, extra: unknown[] = []) {
   const days = await comebackDays(sql, ctx.shopId);
   const { clause, bind } = where(ctx, q, days);
-  const flag = q.flag ? `WHERE ${FLAG_WHERE[q.flag]}` : '';
   const order = `${SORT_SQL[q.sort ?? 'startedAt']} ${q.dir === 'asc' ? 'ASC' : 'DESC'}, id`;
   const paging = tail.replace(/\$P(\d)/g, (_, k: string) => `$${bind.length + Number(k)}`);
   const orderBy = order.replace(/^\w+\./, '');
-  // Without a flag filter, sort and page first and work out the flags for the page's rows only.
-  const rows = flag
-    ? await sql(`SELECT * FROM (${baseSelect(clause)}) x ${flag} ORDER BY ${orderBy} ${paging}`, [...bind, ...extra])
-    : await sql(`SELECT d.*, ${FLAGS_SQL} FROM (${baseSelect(clause, false)} ORDER BY ${orderBy} ${paging}) d
-        ORDER BY ${orderBy}`, [...bind, ...extra]);
-  return { rows, days, clause, bind, flag };
+  // Filter (a flag filter decides only its own flag per row), sort and page first; then work out
+  // the three flags for the page's rows only.
+  const rows = await sql(`SELECT d.*, ${FLAGS_SQL} FROM (${baseSelect(clause, false)} ORDER BY ${orderBy} ${paging}) d
+      ORDER BY ${orderBy}`, [...bind, ...extra]);
+  return { rows, days, clause, bind };
 }
 
 /** One page of the shop's diagnoses with the total of the filtered set. */
 export async function listDiagnoses(sql: Sql, ctx: ShopContext, q: DiagnosisListQuery): Promise<DiagnosisPage> {
-  const { rows, days, clause, bind, flag } = await selectRows(sql, ctx, q, 'LIMIT $P1 OFFSET $P2', [q.pageSize, (q.page - 1) * q.pageSize]);
-  const [count] = flag
-    ? await sql(`SELECT count(*) AS n FROM (${baseSelect(clause)}) x ${flag}`, bind)
-    : await sql(`SELECT count(*) AS n FROM diagnoses d JOIN procedure_versions v ON v.id = d.procedure_version_id
-        JOIN vehicles veh ON veh.id = d.vehicle_id WHERE ${clause} AND $2::int > 0`, bind);
+  const { rows, days, clause, bind } = await selectRows(sql, ctx, q, 'LIMIT $P1 OFFSET $P2', [q.pageSize, (q.page - 1) * q.pageSize]);
+  const [count] = await sql(`SELECT count(*) AS n FROM diagnoses d JOIN procedure_versions v ON v.id = d.procedure_version_id
+      JOIN vehicles veh ON veh.id = d.vehicle_id WHERE ${clause} AND $2::int > 0`, bind);
   const titles = await stepTitles(sql, [...new Set(rows.map((r) => String(r.procedure_version_id)))]);
   return { rows: rows.map((r) => toRow(r, titles)), total: num(count?.n), page: q.page, pageSize: q.pageSize, comebackDays: days };
 }

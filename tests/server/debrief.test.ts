@@ -53,6 +53,22 @@ describe('the diagnoses table', () => {
     expect(back.body.rows.every((r: { flags: { takenBack: boolean } }) => r.flags.takenBack)).toBe(true);
   });
 
+  it('the borderline and comeback filters count what the rows say, page by page', async () => {
+    const border = await trainer.get('/api/debrief/diagnoses?flag=borderline&pageSize=200').expect(200);
+    const [{ b }] = await q(`SELECT count(DISTINCT diagnosis_id)::int AS b FROM diagnosis_steps WHERE verdict IN ('borderline-low', 'borderline-high')`);
+    expect(b).toBeGreaterThan(0);
+    expect(border.body.total).toBe(b);
+    expect(border.body.rows.every((r: { flags: { borderline: boolean } }) => r.flags.borderline)).toBe(true);
+    const back = await trainer.get('/api/debrief/diagnoses?flag=comeback&pageSize=5&page=1').expect(200);
+    const [{ c }] = await q(`SELECT count(*)::int AS c FROM diagnoses d WHERE d.status <> 'active' AND EXISTS (
+      SELECT 1 FROM diagnoses x WHERE x.vehicle_id = d.vehicle_id AND x.started_at > COALESCE(d.ended_at, d.last_activity_at)
+         AND x.started_at <= COALESCE(d.ended_at, d.last_activity_at) + make_interval(days => $1::int))`, [back.body.comebackDays]);
+    expect(c).toBeGreaterThan(5); // the fixture has comebacks on more than one page
+    expect(back.body.total).toBe(c);
+    expect(back.body.rows).toHaveLength(5);
+    expect(back.body.rows.every((r: { flags: { comeback: boolean } }) => r.flags.comeback)).toBe(true);
+  });
+
   it('filters by technician, and lists the shop technicians for the filter', async () => {
     const list = await trainer.get('/api/debrief/technicians').expect(200);
     expect(list.body).toEqual(expect.arrayContaining([{ id: techId, name: 'Casey Tech' }]));
