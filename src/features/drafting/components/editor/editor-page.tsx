@@ -5,11 +5,13 @@ import { ReactFlowProvider } from '@xyflow/react';
 import { Alert, Spinner } from '../../../../components/ui/card';
 import { useSession } from '../../../../lib/session';
 import { draftingKeys, draftingQueries } from '../../api/queries';
-import type { ProcedureDetail, VersionDetail } from '../../api/types';
+import type { ProcedureDetail } from '../../api/types';
 import { Workspace } from './workspace';
 
 /** The published version a draft would replace: the newest one numbered below it (or any, for drafts). */
-function baseOf(detail: ProcedureDetail | undefined, version: VersionDetail | undefined): string | null {
+function baseOf(detail: ProcedureDetail | undefined, versionId: string): string | null {
+  // from the procedure's version list alone, so the base loads alongside the version, not after it
+  const version = detail?.versions.find((v) => v.id === versionId);
   if (!detail || !version) return null;
   const numbered = detail.versions.filter((v) => v.status === 'published' || v.status === 'retired');
   const older = numbered.filter((v) => version.number === null || (v.number ?? 0) < version.number);
@@ -26,7 +28,7 @@ export default function EditorPage() {
   const [generation, setGeneration] = useState(0);
   const detail = useQuery(draftingQueries.procedure(procedureId));
   const version = useQuery(draftingQueries.version(procedureId, versionId));
-  const baseId = baseOf(detail.data, version.data);
+  const baseId = baseOf(detail.data, versionId);
   const base = useQuery({ ...draftingQueries.version(procedureId, baseId ?? ''), enabled: baseId !== null });
 
   if (version.error || detail.error) {
