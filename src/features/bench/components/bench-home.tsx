@@ -6,13 +6,26 @@ import { PageHeader, Badge } from '../../../components/ui/card';
 import { LinkButton } from '../../../components/ui/button';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
+import type { DiagnosisSummary } from '../api/types';
 import { SyncBadge } from './sync-badge';
 import { resumeFromServer } from '../lib/resume';
+
+/** How many ended diagnoses the list shows at first, and adds per "show more". */
+const PAGE = 10;
 
 const STATUS: Record<string, { label: string; tone: 'go' | 'signal' | 'edge' | 'neutral' }> = {
   active: { label: 'In progress', tone: 'signal' }, finished: { label: 'Finished', tone: 'go' },
   handed_off: { label: 'Handed off', tone: 'edge' }, abandoned: { label: 'Abandoned', tone: 'neutral' },
 };
+
+function DiagnosisLink({ d }: { d: DiagnosisSummary }) {
+  return (
+    <Link to={`/bench/d/${d.id}/record`} className="flex min-h-14 items-center justify-between gap-2 rounded-lg border border-line bg-panel p-3">
+      <span><strong>{d.vehicleLabel}</strong> · {d.procedureTitle}<span className="block text-ink-soft">{new Date(d.startedAt).toLocaleDateString()} · {d.stepsAnswered} {d.stepsAnswered === 1 ? 'step' : 'steps'}</span></span>
+      <Badge tone={STATUS[d.status]?.tone ?? 'neutral'}>{STATUS[d.status]?.label ?? d.status}</Badge>
+    </Link>
+  );
+}
 
 /** Bench home: resume active diagnoses (from this phone and the server), start one, see history. */
 export function BenchHome() {
@@ -22,6 +35,9 @@ export function BenchHome() {
   const localActive = local.filter((d) => d.status === 'active');
   const onPhone = new Set(local.map((d) => d.id));
   const history = (server.data ?? []).filter((d) => !(d.status === 'active' && onPhone.has(d.id)));
+  const elsewhere = history.filter((d) => d.status === 'active');
+  const ended = history.filter((d) => d.status !== 'active');
+  const [shown, setShown] = useState(PAGE);
   const navigate = useNavigate();
   const [problem, setProblem] = useState<string | null>(null);
   const resume = async (id: string) => {
@@ -41,30 +57,39 @@ export function BenchHome() {
         {localActive.length === 0 && <p className="text-ink-soft">Nothing in progress on this phone.</p>}
         {localActive.map((d) => (
           <Link key={d.id} to={`/bench/d/${d.id}`} className="flex min-h-16 items-center justify-between gap-2 rounded-lg border-2 border-signal bg-panel p-3 text-lg font-semibold">
-            <span>{d.vehicleLabel} · {d.procedureTitle}<span className="block text-base font-normal text-ink-soft">{d.rows.length} answers · started {new Date(d.startedAt).toLocaleString()}</span></span>
+            <span>{d.vehicleLabel} · {d.procedureTitle}<span className="block text-base font-normal text-ink-soft">{d.rows.length} {d.rows.length === 1 ? 'answer' : 'answers'} · started {new Date(d.startedAt).toLocaleString()}</span></span>
             <span aria-hidden>›</span>
           </Link>
         ))}
       </section>
-      <section aria-labelledby="history" className="space-y-2">
-        <h2 id="history" className="text-xl font-bold">My diagnoses</h2>
-        {server.isError && <p className="text-ink-soft">History needs a connection; it will show when the signal is back.</p>}
-        <ul className="space-y-2">
-          {problem && <li role="alert" className="text-stop">{problem}</li>}
-          {history.map((d) => (
-            <li key={d.id} className="space-y-1">
-              <Link to={`/bench/d/${d.id}/record`} className="flex min-h-14 items-center justify-between gap-2 rounded-lg border border-line bg-panel p-3">
-                <span><strong>{d.vehicleLabel}</strong> · {d.procedureTitle}<span className="block text-ink-soft">{new Date(d.startedAt).toLocaleDateString()} · {d.stepsAnswered} steps</span></span>
-                <Badge tone={STATUS[d.status]?.tone ?? 'neutral'}>{STATUS[d.status]?.label ?? d.status}</Badge>
-              </Link>
-              {d.status === 'active' && (
+      {elsewhere.length > 0 && (
+        <section aria-labelledby="elsewhere" className="space-y-2">
+          <h2 id="elsewhere" className="text-xl font-bold">In progress on another phone</h2>
+          {problem && <p role="alert" className="text-stop">{problem}</p>}
+          <ul className="space-y-2">
+            {elsewhere.map((d) => (
+              <li key={d.id} className="space-y-1">
+                <DiagnosisLink d={d} />
                 <button type="button" onClick={() => void resume(d.id)} className="min-h-12 w-full rounded-lg border-2 border-signal bg-panel px-3 text-lg font-semibold">
                   Continue {d.vehicleLabel} on this phone
                 </button>
-              )}
-            </li>
-          ))}
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
+      <section aria-labelledby="history" className="space-y-2">
+        <h2 id="history" className="text-xl font-bold">My recent diagnoses</h2>
+        {server.isError && <p className="text-ink-soft">History needs a connection; it will show when the signal is back.</p>}
+        {server.data && ended.length === 0 && <p className="text-ink-soft">None yet.</p>}
+        <ul className="space-y-2">
+          {ended.slice(0, shown).map((d) => <li key={d.id}><DiagnosisLink d={d} /></li>)}
         </ul>
+        {ended.length > shown && (
+          <button type="button" onClick={() => setShown(shown + PAGE)} className="min-h-12 w-full rounded-lg border border-line bg-panel px-3 text-lg font-semibold">
+            Show {Math.min(PAGE, ended.length - shown)} more ({ended.length - shown} older)
+          </button>
+        )}
       </section>
       <LinkButton to="/bench/job-card" variant="secondary" className="min-h-12 w-full">Print a job card</LinkButton>
       <LimitsNotice />
