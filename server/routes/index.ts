@@ -13,8 +13,8 @@ import { procedureRoutes } from './procedure.routes';
 import { debriefRoutes } from './debrief.routes';
 
 /**
- * Mounts every API router. Each feature adds one line here; everything below requireShop has
- * req.ctx (user, shop, roles) resolved on the server.
+ * Mounts every API router. Each feature adds one line here; every shop area has req.ctx (user,
+ * shop, roles) resolved on the server by requireShop.
  */
 export function apiRouter(deps: AppDeps, csrfToken: (req: Request, overwrite?: boolean) => string): Router {
   const api = Router();
@@ -22,15 +22,12 @@ export function apiRouter(deps: AppDeps, csrfToken: (req: Request, overwrite?: b
   api.use('/auth', authRoutes(deps, csrfToken));
   api.use(engineRoutes());
 
-  const shop = Router();
-  shop.use(requireShop);
-  shop.use('/shop', shopRoutes(deps));
-  shop.use('/vehicles', vehicleRoutes());
-  shop.use('/bench', benchRoutes(deps));
-  shop.use('/diagnoses', diagnosisRoutes(deps));
-  shop.use('/attachments', attachmentRoutes(deps));
-  shop.use('/procedures', procedureRoutes(deps));
-  shop.use('/debrief', debriefRoutes(deps));
-  api.use(shop);
+  // Shop data: each area behind requireShop, mounted directly (the Bench's step route first: it is
+  // the busiest), so a request passes one router per level and no more.
+  const areas: [string, Router][] = [
+    ['/diagnoses', diagnosisRoutes(deps)], ['/bench', benchRoutes(deps)], ['/attachments', attachmentRoutes(deps)],
+    ['/vehicles', vehicleRoutes()], ['/procedures', procedureRoutes(deps)], ['/debrief', debriefRoutes(deps)], ['/shop', shopRoutes(deps)],
+  ];
+  for (const [path, router] of areas) api.use(path, requireShop, router);
   return api;
 }
