@@ -7,6 +7,7 @@ import { createObjectStore } from './services/storage';
 import { startFakeSmtp, type FakeSmtp } from './dev/fake-smtp';
 import { startFakeS3, type FakeS3 } from './dev/fake-s3';
 import { initModels } from './models';
+import { startCacheBus } from './lib/cache-bus';
 
 export interface Runtime { deps: AppDeps; fakes: { smtp: FakeSmtp | null; s3: FakeS3 | null }; close(): Promise<void> }
 
@@ -44,10 +45,12 @@ export async function startRuntime(config: Config, opts: { migrate?: boolean } =
   });
   await store.ensureBucket();
   const deps: AppDeps = { config, sequelize, mailer, store, mailbox: smtp, log };
+  const stopCacheBus = await startCacheBus(config.DATABASE_URL, log);
   return {
     deps,
     fakes: { smtp, s3 },
     async close() {
+      await stopCacheBus();
       mailer.close();
       await smtp?.close();
       await s3?.close();

@@ -1,6 +1,7 @@
 import type { RequestHandler, Request } from 'express';
 import type { Role } from '@shared/schema/roles';
 import { LRUCache } from 'lru-cache';
+import { announce, onEviction } from '../lib/cache-bus';
 import { Membership } from '../models';
 import { AppError, forbidden, unauthenticated } from '../lib/errors';
 
@@ -33,15 +34,17 @@ export const requireUser: RequestHandler = (req, _res, next) => {
 
 /**
  * Roles per user and shop, kept briefly per process so that a request costs no membership query.
- * Changing roles, removing a member and accepting an invitation forget the entry on commit; another
- * app server (when a shop runs several) sees the change within this time.
+ * Changing roles, removing a member and accepting an invitation forget the entry on commit, here
+ * and, through the cache bus, on every other app server (within this time should the bus be down).
  */
 export const MEMBERSHIP_CACHE_MS = 30_000;
 const memberships = new LRUCache<string, Role[]>({ max: 20_000, ttl: MEMBERSHIP_CACHE_MS });
 const memberKey = (userId: string, shopId: string) => `${userId}:${shopId}`;
 
+onEviction('membership', (key) => memberships.delete(key), () => memberships.clear());
+
 export function forgetMembership(userId: string, shopId: string): void {
-  memberships.delete(memberKey(userId, shopId));
+  announce('membership', memberKey(userId, shopId));
 }
 
 async function rolesIn(userId: string, shopId: string): Promise<Role[] | null> {

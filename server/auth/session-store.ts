@@ -1,10 +1,12 @@
 import session from 'express-session';
 import { LRUCache } from 'lru-cache';
+import { announce, onEviction } from '../lib/cache-bus';
 
 /**
  * How long a process serves a session it has read or written without asking PostgreSQL again.
- * Signing out, signing in (which regenerates the session) and a password reset forget it at once
- * in this process; another app server (when a shop runs several) sees a sign-out within this time.
+ * Signing out, signing in (which regenerates the session) and a password reset forget it at once,
+ * here and, through the cache bus, on every other app server; should the bus be down, another
+ * server trusts a signed-out session for at most this long.
  */
 export const SESSION_CACHE_MS = 30_000;
 
@@ -30,9 +32,17 @@ function remember(sid: string, sess: session.SessionData): void {
   cache.set(sid, { json: JSON.stringify(sess), userId: userOf(sess), expires: expiryOf(sess) });
 }
 
-/** Forgets every cached session of a person (their sessions were deleted in the database). */
-export function forgetSessionsOf(userId: string): void {
+onEviction('session', (sid) => {
+  cache.delete(sid);
+  destroyed.set(sid, true);
+}, () => cache.clear());
+onEviction('user-sessions', (userId) => {
   for (const [sid, e] of cache.entries()) if (e.userId === userId) cache.delete(sid);
+}, () => cache.clear());
+
+/** Forgets every cached session of a person, on every app server (their sessions were deleted). */
+export function forgetSessionsOf(userId: string): void {
+  announce('user-sessions', userId);
 }
 
 /**
@@ -65,8 +75,7 @@ export class CachedSessionStore extends session.Store {
   }
 
   override destroy(sid: string, cb?: Callback): void {
-    cache.delete(sid);
-    destroyed.set(sid, true);
+    announce('session', sid);
     this.inner.destroy(sid, (err) => cb?.(err));
   }
 
