@@ -1,10 +1,10 @@
 import { Router, type Request } from 'express';
 import passport from 'passport';
-import { rateLimit } from 'express-rate-limit';
 import type { AppDeps } from '../deps';
 import { parseInput } from '../lib/validate';
 import { AppError, notFound } from '../lib/errors';
 import { requireUser, type SessionUser } from '../auth/context';
+import { signInLimits } from '../auth/sign-in-limits';
 import { toSessionUser } from '../auth/passport';
 import {
   LoginInput, SwitchShopInput, ForgotPasswordInput, ResetPasswordInput, AcceptInvitationInput,
@@ -31,24 +31,21 @@ function logIn(req: Request, user: SessionUser): Promise<void> {
 
 export function authRoutes(deps: AppDeps, csrfToken: TokenFn): Router {
   const r = Router();
-  const loginLimiter = rateLimit({
-    windowMs: 15 * 60 * 1000,
-    limit: deps.config.LOGIN_RATE_LIMIT,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (req, res) => {
-      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many sign-in attempts. Wait 15 minutes, or reset your password.', requestId: req.requestId } });
-    },
-  });
+  const limits = signInLimits(deps.sequelize, deps.config.LOGIN_RATE_LIMIT);
 
   r.get('/csrf', (req, res) => {
     res.json({ token: csrfToken(req) });
   });
 
-  r.post('/login', loginLimiter, async (req, res) => {
-    req.body = parseInput(LoginInput, req.body, 'The sign-in form');
+  r.post('/login', async (req, res) => {
+    const { email } = req.body = parseInput(LoginInput, req.body, 'The sign-in form');
+    await limits.check(req, email);
     const user = await authenticate(req);
-    if (!user) throw new AppError(401, 'bad_credentials', 'That e-mail and password do not match an account. Check both, or reset your password.');
+    if (!user) {
+      await limits.failed(req, email);
+      throw new AppError(401, 'bad_credentials', 'That e-mail and password do not match an account. Check both, or reset your password.');
+    }
+    await limits.succeeded(req, email);
     await logIn(req, user);
     const me = await describeMe(user, undefined);
     req.session.shopId = me.currentShopId ?? undefined;
@@ -76,8 +73,9 @@ export function authRoutes(deps: AppDeps, csrfToken: TokenFn): Router {
     res.json(await describeMe(req.user!, shopId));
   });
 
-  r.post('/password/forgot', loginLimiter, async (req, res) => {
+  r.post('/password/forgot', async (req, res) => {
     const { email } = parseInput(ForgotPasswordInput, req.body);
+    await limits.resetRequested(req, email);
     await requestPasswordReset(deps, email);
     res.status(202).json({ message: 'If that e-mail has an account, a reset link is on its way. It works once, for one hour.' });
   });

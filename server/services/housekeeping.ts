@@ -16,11 +16,18 @@ export async function markAbandoned(deps: AppDeps): Promise<number> {
   return Number(count ?? 0);
 }
 
+/** Drops sign-in and reset counts whose window has passed. */
+export async function pruneRateLimits(deps: AppDeps): Promise<void> {
+  await deps.sequelize.query('DELETE FROM rate_limits WHERE expire < (extract(epoch FROM now()) * 1000)::bigint');
+}
+
 export function startHousekeeping(deps: AppDeps): () => void {
-  const timer = setInterval(() => {
+  const sweep = () => {
     markAbandoned(deps).catch((err: unknown) => deps.log('housekeeping failed', err));
-  }, 5 * 60 * 1000);
+    pruneRateLimits(deps).catch((err: unknown) => deps.log('housekeeping failed', err));
+  };
+  const timer = setInterval(sweep, 5 * 60 * 1000);
   timer.unref();
-  markAbandoned(deps).catch((err: unknown) => deps.log('housekeeping failed', err));
+  sweep();
   return () => clearInterval(timer);
 }

@@ -2,6 +2,7 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import request from 'supertest';
 import { startTestApp, Client, signInAs, expectEnvelope, DEMO_PASSWORD, type TestEnv } from './harness';
 import { User } from '../../server/models';
+import { createApp } from '../../server/app';
 
 let env: TestEnv;
 beforeAll(async () => { env = await startTestApp(); });
@@ -98,13 +99,46 @@ describe('signing in and out', () => {
 });
 
 describe('the sign-in rate limit', () => {
-  it('answers 429 after too many attempts', async () => {
+  // supertest connects from loopback, which the app trusts as a proxy: X-Forwarded-For names
+  // the address each attempt comes from
+  const from = (app: TestEnv['app'], ip: string) => {
+    const c = new Client(app);
+    return { signIn: async (email: string, password: string) => {
+      const csrf = (await c.agent.get('/api/auth/csrf').set('X-Forwarded-For', ip)).body as { token: string };
+      return c.agent.post('/api/auth/login').set('X-Forwarded-For', ip).set('X-CSRF-Token', csrf.token).send({ email, password });
+    } };
+  };
+
+  it('refuses an address after too many failed sign-ins for an account, on every app server', async () => {
     const limited = await startTestApp({ LOGIN_RATE_LIMIT: '3' });
     try {
+      const attacker = from(limited.app, '203.0.113.7');
       const statuses: number[] = [];
-      for (let i = 0; i < 5; i++) statuses.push((await new Client(limited.app).signIn('tech@larkspur.test', 'wrong-password')).status);
-      expect(statuses.slice(0, 3)).toEqual([401, 401, 401]);
-      expect(statuses.slice(3)).toEqual([429, 429]);
+      for (let i = 0; i < 3; i++) statuses.push((await attacker.signIn('tech@larkspur.test', 'wrong-password')).status);
+      expect(statuses).toEqual([401, 401, 401]);
+      const refused = await attacker.signIn('tech@larkspur.test', DEMO_PASSWORD); // even the right password waits
+      expect(refused.status).toBe(429);
+      expect(expectEnvelope(refused.body).message).toMatch(/Wait \d+ minutes?/);
+      // the count lives in PostgreSQL: a second app server on the same database (no shared memory) refuses too
+      const second = createApp(limited.runtime.deps);
+      expect((await from(second, '203.0.113.7').signIn('tech@larkspur.test', 'wrong-password')).status).toBe(429);
+      // another address, or another account from the same address, is not held back
+      expect((await from(limited.app, '198.51.100.4').signIn('tech@larkspur.test', DEMO_PASSWORD)).status).toBe(200);
+      expect((await attacker.signIn('lead@larkspur.test', DEMO_PASSWORD)).status).toBe(200);
+    } finally {
+      await limited.close();
+    }
+  });
+
+  it('a successful sign-in clears the failures, so a shop sharing one address is not locked out by its staff', async () => {
+    const limited = await startTestApp({ LOGIN_RATE_LIMIT: '3' });
+    try {
+      const shop = from(limited.app, '192.0.2.10');
+      for (let round = 0; round < 3; round++) {
+        expect((await shop.signIn('trainer@larkspur.test', 'typo-password')).status).toBe(401);
+        expect((await shop.signIn('trainer@larkspur.test', 'typo-password')).status).toBe(401);
+        expect((await shop.signIn('trainer@larkspur.test', DEMO_PASSWORD)).status).toBe(200);
+      }
     } finally {
       await limited.close();
     }
