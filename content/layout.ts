@@ -1,11 +1,9 @@
 import { buildGraph, depthFirst, isBackEdge } from '@shared/engine';
-import { handleOffset, nodeSize } from '@shared/engine/geometry';
+import { handleCount, handleOffset, stepBox } from '@shared/engine/geometry';
 import { branchesOf, type ProcedureDocument, type Step } from '@shared/schema';
 
 const ROW_GAP = 70;
 const COLUMN_GAP = 50;
-
-const handlesOf = (s: Step) => branchesOf(s).length || (s.kind === 'task' || s.kind === 'formula' ? 1 : 0);
 
 /**
  * A readable top-down layout: each step sits one row below the deepest step that leads to it
@@ -38,13 +36,13 @@ export function layoutTopDown(doc: ProcedureDocument): ProcedureDocument {
       const px = centre.get(parent.id);
       if (px === undefined) continue;
       const branches = branchesOf(parent);
-      branches.forEach((b, i) => { if (byId.has(b.to) && !centre.has(b.to)) pull.set(b.to, [...(pull.get(b.to) ?? []), px + handleOffset(i, branches.length)]); });
+      branches.forEach((b, i) => { if (byId.has(b.to) && !centre.has(b.to)) pull.set(b.to, [...(pull.get(b.to) ?? []), px + handleOffset(i, handleCount(parent))]); });
     }
     const mean = (id: string) => { const xs = pull.get(id); return xs ? xs.reduce((a, b) => a + b, 0) / xs.length : 0; };
     const ordered = row.map((s, i) => ({ s, i, key: mean(s.id) })).sort((a, b) => a.key - b.key || a.i - b.i).map((x) => x.s);
     // each step as near as it can be to its pull, side by side without overlap, then the row
     // shifted so that it is, on average, centred on its pulls
-    const widths = ordered.map((s) => nodeSize(s.kind, handlesOf(s)).width);
+    const widths = ordered.map((s) => stepBox(s).width);
     const xs: number[] = [];
     ordered.forEach((s, i) => {
       const least = i === 0 ? -Infinity : xs[i - 1]! + widths[i - 1]! / 2 + COLUMN_GAP + widths[i]! / 2;
@@ -52,13 +50,13 @@ export function layoutTopDown(doc: ProcedureDocument): ProcedureDocument {
     });
     const drift = xs.reduce((a, x, i) => a + x - mean(ordered[i]!.id), 0) / xs.length;
     ordered.forEach((s, i) => { centre.set(s.id, xs[i]! - drift); top.set(s.id, y); });
-    y += Math.max(...ordered.map((s) => nodeSize(s.kind, handlesOf(s)).height)) + ROW_GAP + 30; // + the handle labels
+    y += Math.max(...ordered.map((s) => stepBox(s).height)) + ROW_GAP + 30; // + the handle labels
   }
   return {
     ...doc,
     steps: doc.steps.map((s) => {
       const c = centre.get(s.id);
-      return c === undefined ? s : { ...s, position: { x: Math.round(c - nodeSize(s.kind, handlesOf(s)).width / 2), y: top.get(s.id)! } };
+      return c === undefined ? s : { ...s, position: { x: Math.round(c - stepBox(s).width / 2), y: top.get(s.id)! } };
     }),
   };
 }

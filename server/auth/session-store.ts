@@ -38,7 +38,7 @@ onEviction('session', (sid) => {
 }, () => cache.clear());
 onEviction('user-sessions', (userId) => {
   for (const [sid, e] of cache.entries()) if (e.userId === userId) cache.delete(sid);
-}, () => cache.clear());
+});
 
 /** Forgets every cached session of a person, on every app server (their sessions were deleted). */
 export function forgetSessionsOf(userId: string): void {

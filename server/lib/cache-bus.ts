@@ -14,9 +14,9 @@ const handlers = new Map<EvictionKind, (key: string) => void>();
 const resets: (() => void)[] = [];
 
 /** A cache says how it forgets one entry (and all of them). */
-export function onEviction(kind: EvictionKind, forget: (key: string) => void, forgetAll: () => void): void {
+export function onEviction(kind: EvictionKind, forget: (key: string) => void, forgetAll?: () => void): void {
   handlers.set(kind, forget);
-  resets.push(forgetAll);
+  if (forgetAll) resets.push(forgetAll);
 }
 
 interface Listener { client: pg.Client | null; closed: boolean }

@@ -168,12 +168,18 @@ test('a technician runs "No spark" to a Finding, partly without signal, and the 
   await expect.poll(async () => (await adminMail(browser)).some((m) => m.subject.startsWith('Diagnosis report: W-01') && m.to.includes('desk@larkspur.test')), { timeout: 20_000 }).toBe(true);
 });
 
-test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', async ({ page, browser }) => {
-  test.setTimeout(120_000);
+/** Signs the technician in, starts "No spark" on W-01 and answers the spark test; returns the diagnosis id. */
+async function throughSparkTest(page: Page, answer: string): Promise<string> {
   await signIn(page, 'tech');
   const id = await startNoSpark(page);
   await page.getByRole('button', { name: 'Done' }).click();
-  await crank(page, 'Strong blue spark');
+  await crank(page, answer);
+  return id;
+}
+
+test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', async ({ page, browser }) => {
+  test.setTimeout(120_000);
+  const id = await throughSparkTest(page, 'Strong blue spark');
   await expect(page.getByRole('heading', { name: 'Spark is present' })).toBeVisible();
   await shot(page, 'bench-handoff');
   await page.getByRole('button', { name: 'Hand off and notify the leads' }).click();
@@ -185,10 +191,7 @@ test('a hand-off ends the diagnosis with a reason and the leads get an e-mail', 
 
 test('a diagnosis started on one phone can be continued on another', async ({ page, browser }) => {
   test.setTimeout(120_000);
-  await signIn(page, 'tech');
-  const id = await startNoSpark(page);
-  await page.getByRole('button', { name: 'Done' }).click();
-  await crank(page, 'No spark');
+  const id = await throughSparkTest(page, 'No spark');
   const stepIds = async (p: Page) => ((await (await p.request.get(`/api/diagnoses/${id}`)).json()) as { steps: { stepId: string }[] }).steps.map((s) => s.stepId);
   await expect.poll(() => stepIds(page), { timeout: 20_000 }).toEqual(['prepare', 'sparkTest']);
 

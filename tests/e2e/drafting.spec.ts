@@ -9,14 +9,16 @@ import { DEMO_PROCEDURES } from '../../content';
 test.use({ viewport: { width: 1600, height: 1000 } });
 
 /** Writes through the API from the signed-in page (same session and CSRF as the app). */
-async function apiPost<T>(page: Page, url: string, body: unknown): Promise<T> {
-  return page.evaluate(async ({ url, body }) => {
+async function apiWrite<T>(page: Page, method: 'POST' | 'PUT', url: string, body: unknown): Promise<T> {
+  return page.evaluate(async ({ method, url, body }) => {
     const { token } = await (await fetch('/api/auth/csrf')).json() as { token: string };
-    const res = await fetch(url, { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': token }, body: JSON.stringify(body) });
+    const res = await fetch(url, { method, headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': token }, body: JSON.stringify(body) });
     if (!res.ok) throw new Error(`${url}: ${res.status} ${await res.text()}`);
     return res.json();
-  }, { url, body }) as Promise<T>;
+  }, { method, url, body }) as Promise<T>;
 }
+const apiPost = <T>(page: Page, url: string, body: unknown) => apiWrite<T>(page, 'POST', url, body);
+const apiPut = <T>(page: Page, url: string, body: unknown) => apiWrite<T>(page, 'PUT', url, body);
 
 const node = (page: Page, id: string) => page.locator(`.react-flow__node[data-id="${id}"]`);
 
@@ -175,15 +177,6 @@ test('an author builds a procedure from the palette, fixes a band gap, previews 
   await shot(lead, 'drafting-published');
   await leadContext.close();
 });
-
-async function apiPut<T>(page: Page, url: string, body: unknown): Promise<T> {
-  return page.evaluate(async ({ url, body }) => {
-    const { token } = await (await fetch('/api/auth/csrf')).json() as { token: string };
-    const res = await fetch(url, { method: 'PUT', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': token }, body: JSON.stringify(body) });
-    if (!res.ok) throw new Error(`${url}: ${res.status} ${await res.text()}`);
-    return res.json();
-  }, { url, body }) as Promise<T>;
-}
 
 test('a lead reviewing version 2 sees what changed since version 1, on the canvas and as a list', async ({ page, browser }) => {
   test.setTimeout(120_000);

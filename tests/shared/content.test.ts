@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildGraph, depthFirst, isBackEdge, lintProcedure, pathFigures } from '@shared/engine';
 import { branchesOf, procedureDocumentSchema, type Step } from '@shared/schema';
-import { nodeSize } from '@shared/engine/geometry';
+import { stepBox } from '@shared/engine/geometry';
 import { DEMO_PROCEDURES } from '../../content';
 
 const text = (d: (typeof DEMO_PROCEDURES)[number]['document']) => JSON.stringify(d.steps).toLowerCase();
@@ -80,8 +80,7 @@ describe('demo procedures in content/', () => {
 
 describe('the demo procedures open laid out', () => {
   const box = (s: Step) => {
-    const handles = branchesOf(s).length || (s.kind === 'task' || s.kind === 'formula' ? 1 : 0);
-    const { width, height } = nodeSize(s.kind, handles);
+    const { width, height } = stepBox(s);
     return { x0: s.position.x, x1: s.position.x + width, y0: s.position.y, y1: s.position.y + height + 30 }; // + handle labels
   };
 

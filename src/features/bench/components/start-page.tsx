@@ -39,7 +39,7 @@ type SetField = (k: keyof StartForm) => (e: { target: { value: string } }) => vo
 function ProcedureFieldset({ slug, set }: { slug: string; set: SetField }) {
   const [filter, setFilter] = useState({ symptom: '', ignitionSystem: '' });
   const all = useQuery(benchQueries.procedures());
-  const procedures = { data: useMemo(() => (all.data ? filterProcedures(all.data, filter) : undefined), [all.data, filter]) };
+  const shown = useMemo(() => (all.data ? filterProcedures(all.data, filter) : undefined), [all.data, filter]);
   // With signal, keep each published version on the phone, so a later start needs none.
   useEffect(() => { if (all.data && all.isFetchedAfterMount && navigator.onLine) void keepVersions(all.data).catch(() => undefined); }, [all.data, all.isFetchedAfterMount]);
   return (
@@ -48,13 +48,13 @@ function ProcedureFieldset({ slug, set }: { slug: string; set: SetField }) {
       <Field label="Symptom"><Input value={filter.symptom} onChange={(e) => setFilter({ ...filter, symptom: e.target.value })} placeholder="e.g. no spark" /></Field>
       <Field label="Ignition system"><Select value={filter.ignitionSystem} onChange={(e) => setFilter({ ...filter, ignitionSystem: e.target.value })}>{IGNITION.map(([v, l]) => <option key={v} value={v}>{l}</option>)}</Select></Field>
       <div role="radiogroup" aria-label="Published procedures" className="grid gap-2">
-        {procedures.data?.map((p) => (
+        {shown?.map((p) => (
           <label key={p.slug} className="flex min-h-14 items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 text-lg font-semibold has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
             <input type="radio" name="procedure" className="h-6 w-6" value={p.slug} checked={slug === p.slug} onChange={set('slug')} />
             <span>{p.title} <span className="block text-base font-normal text-ink-soft">{p.symptom} · version {p.number}</span></span>
           </label>
         ))}
-        {procedures.data?.length === 0 && <p>No published procedure matches.</p>}
+        {shown?.length === 0 && <p>No published procedure matches.</p>}
       </div>
     </fieldset>
   );

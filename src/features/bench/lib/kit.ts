@@ -5,7 +5,8 @@ import type { BenchProcedure, BenchVersion } from '../api/types';
 // What a phone needs to start a diagnosis without signal: the published procedures with their
 // pinned versions, the shop's machines and its meters, as last fetched with signal.
 
-const isOffline = (e: unknown) => e instanceof ApiError && e.isNetwork;
+/** The request never reached the server (no signal). */
+export const isOffline = (e: unknown) => e instanceof ApiError && e.isNetwork;
 
 /** Fetches with signal and keeps a copy on the phone; without signal, answers the copy. */
 export async function keptOnPhone<T>(key: string, fetcher: () => Promise<T>): Promise<T> {
@@ -36,4 +37,3 @@ export function filterProcedures(list: readonly BenchProcedure[], f: { symptom: 
     && (!f.ignitionSystem || p.ignitionSystem === f.ignitionSystem));
 }
 
-export { isOffline };

@@ -1,8 +1,8 @@
 import type { ProcedureDocument, Position } from '@shared/schema';
 import { branchesOf } from '@shared/schema';
-import { nodeSize } from '@shared/engine/geometry';
+import { stepBox } from '@shared/engine/geometry';
 
-export { nodeWidth, nodeSize } from '@shared/engine/geometry';
+export { nodeWidth } from '@shared/engine/geometry';
 
 /**
  * Layered top-down layout by ELK. elkjs is large, so it is imported only when an author asks for a
@@ -22,7 +22,7 @@ export async function autoLayout(doc: ProcedureDocument): Promise<{ id: string; 
       'elk.spacing.componentComponent': '90',
       'elk.layered.nodePlacement.strategy': 'BRANDES_KOEPF',
     },
-    children: doc.steps.map((s) => ({ id: s.id, ...nodeSize(s.kind, branchesOf(s).length || (s.kind === 'task' || s.kind === 'formula' ? 1 : 0)) })),
+    children: doc.steps.map((s) => ({ id: s.id, ...stepBox(s) })),
     edges: doc.steps.flatMap((s) => branchesOf(s).filter((b) => ids.has(b.to)).map((b) => ({ id: `${b.from}:${b.handle}`, sources: [b.from], targets: [b.to] }))),
   };
   const out = await elk.layout(graph);
