@@ -41,6 +41,12 @@ export type OutboxMessage =
 
 export interface OutboxItem { seq?: number; diagnosisId: string; message: OutboxMessage; refused?: string; createdAt: string }
 
+/**
+ * A message the technician set aside after the server refused its diagnosis: kept on the phone
+ * (never deleted) under its outbox `seq`, so the order of the record survives for a download.
+ */
+export interface AsideItem extends OutboxItem { seq: number; setAsideAt: string }
+
 /** Lists the start page needs (procedures, machines, meters), as last fetched with signal. */
 export interface KitEntry { key: string; data: unknown; savedAt: string }
 
@@ -49,13 +55,14 @@ interface BenchDb extends DBSchema {
   kit: { key: string; value: KitEntry };
   diagnoses: { key: string; value: LocalDiagnosis };
   outbox: { key: number; value: OutboxItem; indexes: { byDiagnosis: string } };
+  aside: { key: number; value: AsideItem; indexes: { byDiagnosis: string } };
 }
 
 let dbPromise: Promise<IDBPDatabase<BenchDb>> | null = null;
 
 /** The Bench database on this phone (IndexedDB through idb). */
 export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
-  dbPromise ??= openDB<BenchDb>('sparkwright-bench', 2, {
+  dbPromise ??= openDB<BenchDb>('sparkwright-bench', 3, {
     // Each store is made when missing, so any earlier version of this database upgrades.
     upgrade(db) {
       const has = (name: string) => db.objectStoreNames.contains(name as never);
@@ -63,6 +70,7 @@ export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
       if (!has('diagnoses')) db.createObjectStore('diagnoses', { keyPath: 'id' });
       if (!has('outbox')) db.createObjectStore('outbox', { keyPath: 'seq', autoIncrement: true }).createIndex('byDiagnosis', 'diagnosisId');
       if (!has('kit')) db.createObjectStore('kit', { keyPath: 'key' });
+      if (!has('aside')) db.createObjectStore('aside', { keyPath: 'seq' }).createIndex('byDiagnosis', 'diagnosisId');
     },
   });
   return dbPromise;

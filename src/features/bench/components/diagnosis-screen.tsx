@@ -34,14 +34,17 @@ function remeasuredAt(path: readonly { stepId: string; outcome: string }[], step
   return n;
 }
 
-/** Sync state, steps done, the estimate left (path figures) and the time on this step. */
-function ProgressHeader({ title, done, left, since }: { title: string; done: number; left: number | undefined; since: number | null }) {
+/**
+ * Sync state, steps done, the estimate left (path figures) and the time on this step. The badge
+ * gets the diagnosis id so a refusal of THIS diagnosis is said as such, ahead of any other.
+ */
+function ProgressHeader({ id, title, done, left, since }: { id: string; title: string; done: number; left: number | undefined; since: number | null }) {
   const toGo = left !== undefined && Number.isFinite(left) ? Math.max(0, Math.round(left - 1)) : null;
   return (
     <header className="space-y-2">
       <p className="text-base text-ink-soft">{title}</p>
       <div className="flex flex-wrap items-center gap-3">
-        <SyncBadge />
+        <SyncBadge diagnosisId={id} />
         <span className="text-lg font-semibold" data-testid="progress">{done} done{toGo !== null ? ` · about ${toGo} to go` : ''}</span>
         {since !== null && <span className="ml-auto text-lg font-semibold">Time on step <StepTimer since={since} /></span>}
       </div>
@@ -90,7 +93,7 @@ export function DiagnosisScreen() {
 
   return (
     <div className="mx-auto max-w-xl space-y-5 pb-16">
-      <ProgressHeader title={`${d.diagnosis.procedureTitle} · ${d.diagnosis.vehicleLabel}`} done={done} left={left} since={currentView || state.ending ? shownAt.at : null} />
+      <ProgressHeader id={id} title={`${d.diagnosis.procedureTitle} · ${d.diagnosis.vehicleLabel}`} done={done} left={left} since={currentView || state.ending ? shownAt.at : null} />
 
       {!editPath && <ComputedCard doc={doc} path={state.path} />}
 
