@@ -20,6 +20,8 @@ class FakeServer {
   /** Starts the server refuses, by diagnosis id: the machine was removed meanwhile. */
   refuseStart = new Set<string>();
   started = new Set<string>();
+  /** Steps answered 409 "busy" once, as the step route does when two answers race. */
+  busyOnce = new Set<string>();
 
   fetch = async (url: string, init: RequestInit = {}): Promise<Response> => {
     if (this.mode === 'offline') throw new TypeError('Failed to fetch');
@@ -32,6 +34,7 @@ class FakeServer {
     if (!step && this.refuseStart.has(diagnosisId)) return notFound('That machine');
     if (!step) { this.started.add(diagnosisId); return json(201, { created: true, id: diagnosisId }); }
     if (!this.started.has(diagnosisId)) return notFound('That diagnosis');
+    if (this.busyOnce.delete(body.id)) return json(409, { error: { code: 'busy', message: 'Several answers reached this diagnosis at the same moment. Send the step again.' } });
     return json(201, { stored: true });
   };
 
@@ -135,6 +138,18 @@ describe('the Bench outbox holds a refused diagnosis and goes on with the others
     await outbox.flushOutbox();
     expect(server.sent.map((s) => s.id)).toEqual(['d1', 'a', 'd2']);
     expect(outbox.syncStore.get().waiting).toBe(0);
+  });
+
+  it('a step the server calls busy waits and goes again at the next drain, instead of being refused', async () => {
+    await queue('d1', 'W-02', [start('d1'), step('a'), step('b')]);
+    server.busyOnce.add('a');
+    await outbox.flushOutbox();
+    expect(await queuedIds()).toEqual(['a', 'b']);
+    expect(outbox.syncStore.get().refused).toEqual([]);
+
+    await outbox.flushOutbox();
+    expect(server.stepsOf('d1')).toEqual(['a', 'a', 'b']);
+    expect(await queuedIds()).toEqual([]);
   });
 
   it('try again re-sends a refused diagnosis, and keeps it refused while the server still says no', async () => {
