@@ -47,7 +47,9 @@ export function AsideList({ aside, current }: { aside: AsideDiagnosis[]; current
   return (
     <section aria-label="Set aside on this phone" data-testid="set-aside" className="space-y-2 rounded-lg border-2 border-ink/60 bg-panel p-3 text-ink">
       <p className="text-lg font-bold">{thisOne ? 'This diagnosis was set aside: its record is not on the server' : 'Set aside on this phone'}</p>
-      <p>Set-aside diagnoses never reached the server. Download each one and give the file to your lead to enter by hand.</p>
+      <p>{thisOne
+        ? 'Steps answered from here on are kept in the file too: download it after the last one and give it to your lead to enter by hand.'
+        : 'Set-aside diagnoses never reached the server. Download each one and give the file to your lead to enter by hand.'}</p>
       <ul className="space-y-2">
         {aside.map((a) => (
           <li key={a.diagnosisId} className="flex flex-wrap items-center justify-between gap-2">
