@@ -5,13 +5,11 @@ import { signIn, shot, axe } from './helpers';
 // A technician's phone: narrow, touch. The demo "No spark" procedure is seeded as version 1.
 test.use({ viewport: { width: 360, height: 780 }, hasTouch: true });
 
-async function goOffline(context: BrowserContext, page: Page): Promise<void> {
-  await context.setOffline(true);
-  await page.route('**/api/**', (route) => route.abort('internetdisconnected'));
-}
-async function goOnline(context: BrowserContext, page: Page): Promise<void> {
-  await page.unroute('**/api/**');
-  await context.setOffline(false);
+/** No signal: the browser says offline and API requests fail as they do without a network. */
+async function signal(context: BrowserContext, page: Page, on: boolean): Promise<void> {
+  if (on) await page.unroute('**/api/**');
+  else await page.route('**/api/**', (route) => route.abort('internetdisconnected'));
+  await context.setOffline(!on);
 }
 
 /** Starts "No spark" on a machine from the page already loaded (no reload: no signal) and answers the first step. */
@@ -66,14 +64,14 @@ test('a refused diagnosis waits on the phone while another syncs, and can be set
   const benchNav = page.getByRole('navigation', { name: 'Areas' }).getByRole('link', { name: 'Bench' });
   await benchNav.click(); // moving inside the app from here on: without signal there is no reload
 
-  await goOffline(context, page);
+  await signal(context, page, false);
   const removed = await startOffline(page, 'W-02 — Wren 50 two-stroke scooter');
   await benchNav.click();
   const fine = await startOffline(page, 'B-01 — Badger 110 youth quad');
   await expect(page.getByTestId('sync-status')).toContainText('4 waiting to sync');
   await machineRemovedMeanwhile(page, removed);
 
-  await goOnline(context, page);
+  await signal(context, page, true);
   const card = page.getByTestId('refused-diagnosis');
   await expect(card).toContainText('Not reaching the server: W-02 · No spark', { timeout: 20_000 });
   await expect(card).toContainText('That machine was not found in this shop');
