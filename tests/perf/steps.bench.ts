@@ -124,7 +124,7 @@ function run(opts: { url: string; sessions?: { cookie: string; csrf: string }[];
 
 const summary = (name: string, r: Measured) =>
   `${name.padEnd(6)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   `
-  + `CPU/req server ${r.cpuUs.toFixed(0).padStart(4)} µs, PostgreSQL ${r.postgresUs >= 0 ? r.postgresUs.toFixed(0).padStart(4) : ' n/a'} µs, machine ${r.machineUs.toFixed(0).padStart(4)} µs   errors ${r.errors}   non-2xx ${r.non2xx}`;
+  + `CPU/req server ${r.cpuUs.toFixed(0).padStart(4)} µs, PostgreSQL ${r.postgresUs.toFixed(0).padStart(4)} µs, autocannon ${r.clientUs.toFixed(0).padStart(4)} µs, machine ${r.machineUs.toFixed(0).padStart(4)} µs   errors ${r.errors}   non-2xx ${r.non2xx}`;
 
 /** The server side: its own process, so autocannon does not share its event loop. */
 async function serve(): Promise<void> {
@@ -161,7 +161,6 @@ function serverCpu(child: ChildProcess): Promise<number> {
   });
 }
 
-/** One autocannon run with the server's CPU time per request it answered. */
 /** Busy CPU time of the whole machine so far (µs), from /proc/stat: server, PostgreSQL, autocannon. */
 function machineCpu(): number {
   const [, ...ticks] = readFileSync('/proc/stat', 'utf8').split('\n')[0]!.trim().split(/\s+/).map(Number);
@@ -170,8 +169,8 @@ function machineCpu(): number {
 }
 
 /**
- * CPU time of the PostgreSQL processes running now (µs), from /proc/<pid>/stat. A backend that
- * closed during a run takes its time with it (the figure is then n/a).
+ * CPU time of PostgreSQL so far (µs), from /proc: the postmaster's own and its reaped children's
+ * (a backend that closed during a run is counted there), plus every backend still running.
  */
 function postgresCpu(): number {
   let ticks = 0;
@@ -181,19 +180,21 @@ function postgresCpu(): number {
       if (!stat.includes('(postgres)')) continue;
       const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
       ticks += Number(f[11]) + Number(f[12]); // utime, stime
+      if (!readFileSync(`/proc/${f[1]}/stat`, 'utf8').includes('(postgres)')) ticks += Number(f[13]) + Number(f[14]); // the postmaster: cutime, cstime
     } catch { /* the process ended */ }
   }
   return (ticks * 1e6) / 100;
 }
 
-interface Measured extends autocannon.Result { cpuUs: number; machineUs: number; postgresUs: number }
+interface Measured extends autocannon.Result { cpuUs: number; machineUs: number; postgresUs: number; clientUs: number }
 
-/** One autocannon run with the CPU time per answered request: the server's and the machine's. */
+/** One autocannon run with the CPU time per answered request: server, PostgreSQL, autocannon, machine. */
 async function measured(child: ChildProcess, go: () => Promise<autocannon.Result>): Promise<Measured> {
-  const [before, machine, postgres] = [await serverCpu(child), machineCpu(), postgresCpu()];
+  const [before, machine, postgres, client] = [await serverCpu(child), machineCpu(), postgresCpu(), process.cpuUsage()];
   const result = await go();
+  const own = process.cpuUsage(client);
   const per = (us: number) => us / Math.max(1, result.requests.total);
-  return { ...result, cpuUs: per(await serverCpu(child) - before), machineUs: per(machineCpu() - machine), postgresUs: per(postgresCpu() - postgres) };
+  return { ...result, cpuUs: per(await serverCpu(child) - before), machineUs: per(machineCpu() - machine), postgresUs: per(postgresCpu() - postgres), clientUs: per(own.user + own.system) };
 }
 
 function ask(child: ChildProcess, message: string, answer: string): Promise<void> {
