@@ -194,6 +194,42 @@ describe('the Bench outbox holds a refused diagnosis and goes on with the others
     expect(JSON.parse(JSON.stringify(record))).toEqual(record); // plain JSON, fit for a file
   });
 
+  it('a step answered after its diagnosis was set aside stays aside, in order, and is never sent', async () => {
+    await queue('d1', 'W-02', [start('d1'), step('a')]);
+    server.refuseStart.add('d1');
+    await outbox.flushOutbox();
+    await outbox.setAside('d1');
+
+    await queue('d1', 'W-02', [step('b')]);
+    await queue('d2', 'B-07', [start('d2')]);
+    await outbox.flushOutbox();
+
+    expect(server.sent.map((s) => s.id)).toEqual(['d1', 'd2']); // d1's start once, refused; nothing after it
+    expect(await queuedIds()).toEqual([]);
+    expect((await outbox.setAsideRecord('d1')).messages.map((m) => (m.body as { id: string }).id)).toEqual(['d1', 'a', 'b']);
+    expect(outbox.syncStore.get()).toMatchObject({ waiting: 0, refused: [], aside: [expect.objectContaining({ diagnosisId: 'd1', messages: 3 })] });
+  });
+
+  it('removing a set-aside diagnosis takes it and its messages off the phone, and nothing else', async () => {
+    await queue('d1', 'W-02', [start('d1'), step('a')]);
+    await queue('d2', 'B-07', [start('d2')]);
+    server.refuseStart.add('d1');
+    server.mode = 'up';
+    await outbox.flushOutbox();
+    await outbox.setAside('d1');
+    server.mode = 'offline';
+    await queue('d3', 'H-11', [start('d3')]);
+
+    await outbox.removeSetAside('d1');
+    await outbox.removeSetAside('d3'); // not set aside: refused quietly, kept
+
+    const phone = await db.benchDb();
+    expect(await phone.getAll('aside')).toEqual([]);
+    expect((await db.listLocalDiagnoses()).map((d) => d.id).sort()).toEqual(['d2', 'd3']);
+    expect(await queuedIds()).toEqual(['d3']);
+    expect(outbox.syncStore.get().aside).toEqual([]);
+  });
+
   it('set aside leaves a diagnosis that was not refused in the outbox', async () => {
     server.mode = 'offline';
     await queue('d1', 'W-02', [start('d1')]);

@@ -97,4 +97,16 @@ test('a refused diagnosis waits on the phone while another syncs, and can be set
   expect(file.messages.map((m) => m.kind)).toEqual(['start', 'step']);
   expect(file.messages[0]!.refused).toMatch(/^That machine was not found/);
   expect((await page.request.get(`/api/diagnoses/${removed}`)).status()).toBe(404);
+
+  // Bench home lists it under the set-aside record, not as one to resume; once the lead has the
+  // file, two taps take it off the phone.
+  await page.goto('/bench');
+  const resume = page.getByRole('region', { name: 'Resume on this phone' });
+  await expect(resume).toContainText('B-01');
+  await expect(resume).not.toContainText('W-02');
+  await page.getByRole('button', { name: 'Remove from this phone W-02 · No spark' }).click();
+  await shot(page, 'bench-set-aside-remove');
+  await page.getByRole('button', { name: 'Yes, remove: my lead has the file' }).click();
+  await expect(page.getByTestId('sync-status')).toHaveText('All synced');
+  await expect(page.getByTestId('set-aside')).toHaveCount(0);
 });

@@ -102,13 +102,24 @@ export async function listLocalDiagnoses(): Promise<LocalDiagnosis[]> {
 
 /**
  * Changes a diagnosis and queues what the server must hear, in one IndexedDB transaction, so a
- * reload or a flat battery can never keep one without the other.
+ * reload or a flat battery can never keep one without the other. A diagnosis set aside after a
+ * refusal keeps its new messages aside too: the server would refuse them again, and the file the
+ * lead downloads must hold every answer.
  */
 export async function commitLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
   const db = await benchDb();
-  const tx = db.transaction(['diagnoses', 'outbox'], 'readwrite');
+  const tx = db.transaction(['diagnoses', 'outbox', 'aside'], 'readwrite');
   await tx.objectStore('diagnoses').put({ ...diagnosis, updatedAt: new Date().toISOString() });
   const now = new Date().toISOString();
-  for (const message of messages) await tx.objectStore('outbox').add({ diagnosisId: diagnosis.id, message, createdAt: now });
+  const setAside = (await tx.objectStore('aside').index('byDiagnosis').count(diagnosis.id)) > 0;
+  for (const message of messages) {
+    const item = { diagnosisId: diagnosis.id, message, createdAt: now };
+    const seq = await tx.objectStore('outbox').add(item);
+    // Set aside: the outbox's key generator still gives the seq, so the two stores never clash.
+    if (setAside) {
+      await tx.objectStore('outbox').delete(seq);
+      await tx.objectStore('aside').put({ ...item, seq, setAsideAt: now });
+    }
+  }
   await tx.done;
 }

@@ -216,6 +216,22 @@ export async function setAside(diagnosisId: string): Promise<void> {
   await refresh(db);
 }
 
+/**
+ * Removes a set-aside diagnosis from this phone once the lead has its file: its set-aside
+ * messages and the diagnosis itself, in one transaction. Only set-aside diagnoses can go.
+ */
+export async function removeSetAside(diagnosisId: string): Promise<void> {
+  const db = await benchDb();
+  const tx = db.transaction(['aside', 'diagnoses'], 'readwrite');
+  const keys = await tx.objectStore('aside').index('byDiagnosis').getAllKeys(diagnosisId);
+  if (keys.length > 0) {
+    for (const key of keys) await tx.objectStore('aside').delete(key);
+    await tx.objectStore('diagnoses').delete(diagnosisId);
+  }
+  await tx.done;
+  await refresh(db);
+}
+
 /** What a set-aside diagnosis's file holds: the diagnosis as on the phone and its messages, photos by name. */
 export interface SetAsideRecord {
   format: 'sparkwright-set-aside';

@@ -1,7 +1,8 @@
-import { useEffect, useState } from 'react';
+import { useEffect, useState, useSyncExternalStore } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { listLocalDiagnoses, type LocalDiagnosis } from '../../../lib/offline/db';
+import { syncStore } from '../../../lib/offline/outbox';
 import { PageHeader, Badge } from '../../../components/ui/card';
 import { LinkButton } from '../../../components/ui/button';
 import { LimitsNotice } from '../../../components/ui/safety';
@@ -31,8 +32,12 @@ function DiagnosisLink({ d }: { d: DiagnosisSummary }) {
 export function BenchHome() {
   const server = useQuery(benchQueries.diagnoses());
   const [local, setLocal] = useState<LocalDiagnosis[]>([]);
-  useEffect(() => { void listLocalDiagnoses().then(setLocal); }, []);
-  const localActive = local.filter((d) => d.status === 'active');
+  const { aside } = useSyncExternalStore(syncStore.subscribe, syncStore.get);
+  // Re-read when the set-aside list changes: a removed diagnosis leaves the phone.
+  useEffect(() => { void listLocalDiagnoses().then(setLocal); }, [aside]);
+  // A set-aside diagnosis is listed by the sync badge, with its download, not as one to resume.
+  const setAside = new Set(aside.map((a) => a.diagnosisId));
+  const localActive = local.filter((d) => d.status === 'active' && !setAside.has(d.id));
   const onPhone = new Set(local.map((d) => d.id));
   const history = (server.data ?? []).filter((d) => !(d.status === 'active' && onPhone.has(d.id)));
   const elsewhere = history.filter((d) => d.status === 'active');

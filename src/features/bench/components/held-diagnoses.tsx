@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { retryDiagnosis, setAside, setAsideRecord, type AsideDiagnosis, type RefusedDiagnosis } from '../../../lib/offline/outbox';
+import { removeSetAside, retryDiagnosis, setAside, setAsideRecord, type AsideDiagnosis, type RefusedDiagnosis } from '../../../lib/offline/outbox';
 import { Button } from '../../../components/ui/button';
 
 const UNKNOWN = 'A diagnosis no longer on this phone';
@@ -41,6 +41,29 @@ async function download(a: AsideDiagnosis): Promise<void> {
   setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
 
+/** Download, then (two taps, once the lead has the file) remove it from this phone. */
+function AsideRow({ a, current }: { a: AsideDiagnosis; current: boolean }) {
+  const [confirming, setConfirming] = useState(false);
+  const name = a.label ?? UNKNOWN;
+  return (
+    <li className="space-y-2 border-t border-line pt-2 first:border-0 first:pt-0">
+      <p className="font-semibold">{name}{current ? ' (this diagnosis)' : ''}</p>
+      <div className="flex flex-wrap gap-2">
+        <Button size="lg" variant="secondary" onClick={() => void download(a)}>
+          Download<span className="sr-only"> {name}</span>
+        </Button>
+        {confirming ? (
+          <Button size="lg" variant="danger" onClick={() => void removeSetAside(a.diagnosisId)}>Yes, remove: my lead has the file</Button>
+        ) : (
+          <Button size="lg" variant="secondary" onClick={() => setConfirming(true)}>
+            Remove from this phone<span className="sr-only"> {name}</span>
+          </Button>
+        )}
+      </div>
+    </li>
+  );
+}
+
 /** Diagnoses set aside on this phone: not on the server, so the lead gets them as files. */
 export function AsideList({ aside, current }: { aside: AsideDiagnosis[]; current?: string }) {
   const thisOne = aside.some((a) => a.diagnosisId === current);
@@ -51,14 +74,7 @@ export function AsideList({ aside, current }: { aside: AsideDiagnosis[]; current
         ? 'Steps answered from here on are kept in the file too: download it after the last one and give it to your lead to enter by hand.'
         : 'Set-aside diagnoses never reached the server. Download each one and give the file to your lead to enter by hand.'}</p>
       <ul className="space-y-2">
-        {aside.map((a) => (
-          <li key={a.diagnosisId} className="flex flex-wrap items-center justify-between gap-2">
-            <span className="font-semibold">{a.label ?? UNKNOWN}{a.diagnosisId === current ? ' (this diagnosis)' : ''}</span>
-            <Button size="lg" variant="secondary" onClick={() => void download(a)}>
-              Download<span className="sr-only"> {a.label ?? 'the set-aside diagnosis'}</span>
-            </Button>
-          </li>
-        ))}
+        {aside.map((a) => <AsideRow key={a.diagnosisId} a={a} current={a.diagnosisId === current} />)}
       </ul>
     </section>
   );
