@@ -1,12 +1,12 @@
-import { useCallback, useEffect, useMemo, useState, type DragEvent } from 'react';
+import { useCallback, useEffect, useMemo, useState, type Dispatch, type DragEvent, type SetStateAction } from 'react';
 import {
   ReactFlow, Background, Controls, MiniMap, applyNodeChanges, useReactFlow,
-  type Connection, type EdgeChange, type NodeChange, type OnSelectionChangeParams,
+  type Connection, type EdgeChange, type NodeChange, type OnSelectionChangeParams, type ReactFlowProps,
 } from '@xyflow/react';
 import '@xyflow/react/dist/style.css';
 import type { ProcedureDocument, StepKind } from '@shared/schema';
 import type { Edit } from '../../lib/edits';
-import { openingView, toFlow, type FlowMarks, type StepNode } from '../../lib/flow';
+import { openingView, toFlow, type BranchEdge, type FlowMarks, type StepNode } from '../../lib/flow';
 import { stepFor } from '../../lib/new-step';
 import { nodeTypes } from './step-node';
 import { KIND_TONE } from './step-glyphs';
@@ -23,42 +23,58 @@ interface Props {
   onSelect: (ids: string[]) => void;
 }
 
-/** React Flow bound to the document: every change the canvas reports becomes one Edit. */
-export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }: Props) {
-  const flow = useMemo(() => toFlow(doc, marks), [doc, marks]);
-  const [opening] = useState(() => openingView(doc)); // the first document only: edits never move the view
-  // React Flow needs to move nodes while they are dragged; the document changes on drop.
-  const [nodes, setNodes] = useState<StepNode[]>(flow.nodes);
-  // Selection and measurements belong to React Flow: a document change keeps them, and a step
-  // being dragged keeps its position until the drop, so the two never fight over a node.
-  useEffect(() => setNodes((prev) => {
-    const before = new Map(prev.map((n) => [n.id, n]));
-    return flow.nodes.map((n) => {
-      const p = before.get(n.id);
-      if (!p) return n;
-      return { ...n, selected: p.selected ?? false, ...(p.measured ? { measured: p.measured } : {}), ...(p.dragging ? { position: p.position, dragging: true } : {}) };
-    });
-  }), [flow.nodes]);
+// Fixed for every canvas; kept out of the render so React Flow sees the same objects each time.
+const CANVAS_OPTIONS: Partial<ReactFlowProps<StepNode>> = {
+  edgesReconnectable: false,
+  multiSelectionKeyCode: ['Shift', 'Meta', 'Control'],
+  selectionKeyCode: 'Shift',
+  fitView: true,
+  minZoom: 0.1,
+  maxZoom: 2,
+  proOptions: { hideAttribution: true },
+  defaultEdgeOptions: { type: 'smoothstep' },
+};
+
+/**
+ * Selection and measurements belong to React Flow: a document change keeps them, and a step
+ * being dragged keeps its position until the drop, so the two never fight over a node.
+ */
+function keepCanvasState(prev: StepNode[], next: StepNode[]): StepNode[] {
+  const before = new Map(prev.map((n) => [n.id, n]));
+  return next.map((n) => {
+    const p = before.get(n.id);
+    if (!p) return n;
+    return { ...n, selected: p.selected ?? false, ...(p.measured ? { measured: p.measured } : {}), ...(p.dragging ? { position: p.position, dragging: true } : {}) };
+  });
+}
+
+// React Flow needs to move nodes while they are dragged; the document changes on drop.
+function useCanvasNodes(flowNodes: StepNode[], selectRequest: Props['selectRequest']) {
+  const [nodes, setNodes] = useState<StepNode[]>(flowNodes);
+  useEffect(() => setNodes((prev) => keepCanvasState(prev, flowNodes)), [flowNodes]);
   useEffect(() => {
     if (selectRequest.seq === 0) return;
     const wanted = new Set(selectRequest.ids);
     setNodes((prev) => prev.map((n) => (n.selected === wanted.has(n.id) ? n : { ...n, selected: wanted.has(n.id) })));
   }, [selectRequest]);
-  const { screenToFlowPosition } = useReactFlow();
+  return [nodes, setNodes] as const;
+}
 
+/** The changes React Flow reports, as document edits. */
+function useEditHandlers(edges: BranchEdge[], setNodes: Dispatch<SetStateAction<StepNode[]>>, onEdit: (edit: Edit) => void) {
   const onNodesChange = useCallback((changes: NodeChange<StepNode>[]) => {
     setNodes((ns) => applyNodeChanges(changes, ns));
     const removed = changes.flatMap((c) => (c.type === 'remove' ? [c.id] : []));
     if (removed.length > 0) onEdit({ type: 'remove-steps', ids: removed });
-  }, [onEdit]);
+  }, [onEdit, setNodes]);
 
   const onEdgesChange = useCallback((changes: EdgeChange[]) => {
     for (const c of changes) {
       if (c.type !== 'remove') continue;
-      const edge = flow.edges.find((e) => e.id === c.id);
+      const edge = edges.find((e) => e.id === c.id);
       if (edge?.sourceHandle) onEdit({ type: 'disconnect', from: edge.source, handle: edge.sourceHandle });
     }
-  }, [flow.edges, onEdit]);
+  }, [edges, onEdit]);
 
   const onConnect = useCallback((c: Connection) => {
     if (c.sourceHandle) onEdit({ type: 'connect', from: c.source, handle: c.sourceHandle, to: c.target });
@@ -68,6 +84,17 @@ export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }
   const onNodeDragStop = useCallback((_e: unknown, _n: StepNode, dragged: StepNode[]) => {
     onEdit({ type: 'move-steps', moves: dragged.map((n) => ({ id: n.id, position: { x: Math.round(n.position.x), y: Math.round(n.position.y) } })) });
   }, [onEdit]);
+
+  return { onNodesChange, onEdgesChange, onConnect, onNodeDragStop };
+}
+
+/** React Flow bound to the document: every change the canvas reports becomes one Edit. */
+export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }: Props) {
+  const flow = useMemo(() => toFlow(doc, marks), [doc, marks]);
+  const [opening] = useState(() => openingView(doc)); // the first document only: edits never move the view
+  const [nodes, setNodes] = useCanvasNodes(flow.nodes, selectRequest);
+  const { screenToFlowPosition } = useReactFlow();
+  const edits = useEditHandlers(flow.edges, setNodes, onEdit);
 
   const onSelectionChange = useCallback(({ nodes: sel }: OnSelectionChangeParams) => onSelect(sel.map((n) => n.id)), [onSelect]);
 
@@ -82,26 +109,16 @@ export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }
   return (
     <div className="h-full w-full" onDragOver={(e) => { if (!readOnly) { e.preventDefault(); e.dataTransfer.dropEffect = 'copy'; } }} onDrop={onDrop} data-testid="canvas">
       <ReactFlow<StepNode>
+        {...CANVAS_OPTIONS}
+        {...edits}
         nodes={nodes}
         edges={flow.edges}
         nodeTypes={nodeTypes}
-        onNodesChange={onNodesChange}
-        onEdgesChange={onEdgesChange}
-        onConnect={onConnect}
-        onNodeDragStop={onNodeDragStop}
         onSelectionChange={onSelectionChange}
         nodesDraggable={!readOnly}
         nodesConnectable={!readOnly}
-        edgesReconnectable={false}
         deleteKeyCode={readOnly ? null : ['Delete', 'Backspace']}
-        multiSelectionKeyCode={['Shift', 'Meta', 'Control']}
-        selectionKeyCode="Shift"
-        fitView
         fitViewOptions={opening}
-        minZoom={0.1}
-        maxZoom={2}
-        proOptions={{ hideAttribution: true }}
-        defaultEdgeOptions={{ type: 'smoothstep' }}
       >
         <Background gap={24} color="var(--color-line)" />
         <MiniMap pannable zoomable ariaLabel="Overview of the procedure" nodeColor={(n) => KIND_TONE[(n as StepNode).data.step.kind].stroke} />
