@@ -9,6 +9,7 @@ import { useSession } from '../../../lib/session';
 import { debriefQueries } from '../api/queries';
 import { useDraftFromAdvice } from '../api/mutations';
 import { formatDuration, percent } from '../lib/format';
+import { adviceSummary, byTimeToWin } from '../lib/advice';
 import { FigureTableView } from './chart-card';
 
 function ChainCard({ chain, doc, versionId, canDraft }: { chain: AdvisorChain; doc: ProcedureDocument; versionId: string; canDraft: boolean }) {
@@ -59,7 +60,8 @@ export function AdvisorPanel({ q, doc, versionId }: { q: AnalyticsQuery; doc: Pr
         (Kadane &amp; Simon 1977; Heckerman, Breese &amp; Rommelse 1995). Chances and times come from the recorded diagnoses of this version.
       </p>
       {data.chains.length === 0 && <EmptyState title="This version has no chain of independent checks to reorder" />}
-      {data.chains.map((c) => <ChainCard key={c.checks.join()} chain={c} doc={doc} versionId={data.versionId} canDraft={roles.includes('lead')} />)}
+      {data.chains.length > 0 && <p className="text-lg font-semibold">{adviceSummary(data.chains, formatDuration)}</p>}
+      {byTimeToWin(data.chains).map((c) => <ChainCard key={c.checks.join()} chain={c} doc={doc} versionId={data.versionId} canDraft={roles.includes('lead')} />)}
     </div>
   );
 }
