@@ -58,6 +58,9 @@ export function procedureRoutes(deps: AppDeps): Router {
   r.post('/:id/versions/:versionId/submit', author, async (req, res) => {
     res.json(await versions.moveVersion(deps, ctxOf(req), ids(req), 'submit'));
   });
+  r.post('/:id/versions/:versionId/take-back', author, async (req, res) => {
+    res.json(await versions.moveVersion(deps, ctxOf(req), ids(req), 'take-back'));
+  });
   r.post('/:id/versions/:versionId/send-back', lead, async (req, res) => {
     const { comment } = parseInput(inputs.reviewDecisionBody, req.body ?? {});
     res.json(await review.sendBack(deps, ctxOf(req), ids(req), comment));

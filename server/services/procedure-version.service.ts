@@ -97,16 +97,19 @@ export async function startDraft(deps: AppDeps, ctx: ShopContext, procedureId: s
   });
 }
 
-type Move = 'submit' | 'send-back' | 'publish' | 'retire';
+type Move = 'submit' | 'take-back' | 'send-back' | 'publish' | 'retire';
 
-/** The review life cycle: draft → in review → published (or back to draft); published → retired. */
+/**
+ * The review life cycle: draft → in review → published (or back to draft: sent back by a lead,
+ * or taken back by an author who spotted something before the review); published → retired.
+ */
 export async function moveVersion(deps: AppDeps, ctx: ShopContext, ids: { procedureId: string; versionId: string }, move: Move): Promise<VersionDetail> {
   return withVersion(deps, ctx, ids, async (v, p, t) => {
     if (move === 'submit') {
       expectStatus(v, ['draft'], 'sent for review');
       await v.update({ status: 'in_review', updatedBy: ctx.userId, lockVersion: v.lockVersion + 1 }, { transaction: t });
-    } else if (move === 'send-back') {
-      expectStatus(v, ['in_review'], 'sent back');
+    } else if (move === 'send-back' || move === 'take-back') {
+      expectStatus(v, ['in_review'], move === 'send-back' ? 'sent back' : 'taken back (it is no longer in review)');
       await v.update({ status: 'draft', lockVersion: v.lockVersion + 1 }, { transaction: t });
     } else if (move === 'publish') {
       expectStatus(v, ['in_review'], 'published (send it for review first)');

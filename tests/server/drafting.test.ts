@@ -117,6 +117,19 @@ describe('the draft, review and publish life cycle', () => {
     expect(comments.body).toEqual([expect.objectContaining({ body: 'Add the band for an open winding.', author: 'Rowan Lead' })]);
     await save(author, ids, soundDocument('Sent back'), back.body.lockVersion).expect(200);
   });
+
+  it('an author takes a draft back from review to edit it; a technician or trainer cannot, and a draft not in review cannot be taken back', async () => {
+    const ids = await createDraft('Taken back');
+    await author.post(url(ids, '/submit')).expect(200);
+    expect((await tech.post(url(ids, '/take-back'))).status).toBe(403);
+    expect((await trainer.post(url(ids, '/take-back'))).status).toBe(403);
+    const back = await author.post(url(ids, '/take-back')).expect(200);
+    expect(back.body.status).toBe('draft');
+    await save(author, ids, soundDocument('Taken back'), back.body.lockVersion).expect(200);
+    const twice = await author.post(url(ids, '/take-back'));
+    expect(twice.status).toBe(409);
+    expect(expectEnvelope(twice.body).message).toMatch(/taken back/);
+  });
 });
 
 describe('saving with optimistic concurrency', () => {

@@ -10,7 +10,7 @@ export interface VersionIds { procedureId: string; versionId: string }
 export const saveDraft = (ids: VersionIds, document: ProcedureDocument, lockVersion: number) =>
   api.put<VersionDetail>(versionUrl(ids.procedureId, ids.versionId), { document, lockVersion });
 
-export type Move = 'submit' | 'send-back' | 'publish' | 'retire';
+export type Move = 'submit' | 'take-back' | 'send-back' | 'publish' | 'retire';
 export const moveVersion = (ids: VersionIds, move: Move, comment?: string) =>
   api.post<VersionDetail>(`${versionUrl(ids.procedureId, ids.versionId)}/${move}`, comment ? { comment } : {});
 

@@ -42,6 +42,9 @@ export function VersionActions({ ids, version, roles, hasOpenDraft, errors, befo
     <div className="flex flex-wrap items-center gap-2">
       <a className="min-h-10 content-center rounded-md border border-line bg-panel px-3 text-sm font-semibold hover:border-ink" href={exportUrl(ids)} download>Export</a>
       {version.status === 'draft' && author && <Button onClick={() => move.mutate('submit')} busy={move.isPending}>Send for review</Button>}
+      {version.status === 'in_review' && author && (
+        <Button variant="secondary" onClick={() => move.mutate('take-back')} busy={move.isPending} title="Back to a draft you can edit; send it for review again when ready">Take back to edit</Button>
+      )}
       {version.status === 'in_review' && lead && (
         <>
           <Button onClick={() => move.mutate('publish')} busy={move.isPending} title={errors > 0 ? 'The soundness check has errors' : undefined}>Publish</Button>
