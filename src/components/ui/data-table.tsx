@@ -1,7 +1,7 @@
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import {
   useTable, tableFeatures, rowSortingFeature, globalFilteringFeature, columnFilteringFeature,
-  createSortedRowModel, createFilteredRowModel, sortFns, filterFns, type ColumnDef, type RowData,
+  createSortedRowModel, createFilteredRowModel, sortFns, filterFns, type ColumnDef, type ReactTable, type RowData, type TableFeatures,
 } from '@tanstack/react-table';
 import { Input } from './field';
 import { cx } from './cx';
@@ -17,6 +17,59 @@ export const tableFeatureSet = tableFeatures({
 });
 export type TableColumns<T extends RowData> = ColumnDef<typeof tableFeatureSet, T>[];
 
+/** What a heading needs of a sortable column, whatever other features its table has. */
+interface SortableColumn {
+  getIsSorted: () => false | 'asc' | 'desc';
+  getCanSort: () => boolean;
+  getToggleSortingHandler: () => undefined | ((event: unknown) => void);
+}
+
+const ARIA_SORT = { asc: 'ascending', desc: 'descending' } as const;
+const SORT_MARK = { asc: '▲', desc: '▼' } as const;
+
+/**
+ * A column heading: one that sorts is a button, and screen readers hear which way it is
+ * sorted. `buttonClassName` lets a page keep its own heading look.
+ */
+export function SortHeading({ column, buttonClassName, children }: { column: SortableColumn; buttonClassName: string; children: ReactNode }) {
+  const sorted = column.getIsSorted();
+  return (
+    <th scope="col" aria-sort={sorted ? ARIA_SORT[sorted] : undefined} className="px-3 py-2 text-sm font-bold uppercase tracking-wide text-ink-soft">
+      {column.getCanSort() ? (
+        <button type="button" onClick={column.getToggleSortingHandler()} className={buttonClassName}>
+          {children}
+          <span aria-hidden>{sorted ? SORT_MARK[sorted] : '↕'}</span>
+        </button>
+      ) : children}
+    </th>
+  );
+}
+
+/** The body rows, every other one shaded, or one row saying why there are none. */
+export function StripedBody<TFeatures extends TableFeatures, TData extends RowData>({ table, columnCount, empty, emptyClassName }: {
+  table: ReactTable<TFeatures, TData, unknown>; columnCount: number; empty: ReactNode; emptyClassName: string;
+}) {
+  const rows = table.getRowModel().rows;
+  return (
+    <tbody>
+      {rows.map((row, i) => (
+        <tr key={row.id} className={cx('border-t border-line', i % 2 === 1 && 'bg-paper/60')}>
+          {row.getAllCells().map((cell) => (
+            <td key={cell.id} className="px-3 py-2 align-middle">
+              <table.FlexRender cell={cell} />
+            </td>
+          ))}
+        </tr>
+      ))}
+      {rows.length === 0 && (
+        <tr>
+          <td colSpan={columnCount} className={emptyClassName}>{empty}</td>
+        </tr>
+      )}
+    </tbody>
+  );
+}
+
 /** A sortable, filterable table for lists of a few hundred rows held on the client. */
 export function DataTable<T extends RowData>({ data, columns, label, filterPlaceholder = 'Filter', empty = 'Nothing here yet.' }: {
   data: T[]; columns: TableColumns<T>; label: string; filterPlaceholder?: string; empty?: string;
@@ -30,7 +83,6 @@ export function DataTable<T extends RowData>({ data, columns, label, filterPlace
     onGlobalFilterChange: setGlobalFilter,
     globalFilterFn: 'includesString',
   });
-  const rows = table.getRowModel().rows;
   return (
     <div className="flex flex-col gap-3">
       <Input aria-label={`Filter ${label}`} placeholder={filterPlaceholder} value={globalFilter} onChange={(e) => setGlobalFilter(e.target.value)} className="max-w-sm" />
@@ -40,41 +92,15 @@ export function DataTable<T extends RowData>({ data, columns, label, filterPlace
           <thead className="bg-ink/5">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const sorted = h.column.getIsSorted();
-                  const canSort = h.column.getCanSort();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined} className="px-3 py-2 text-sm font-bold uppercase tracking-wide text-ink-soft">
-                      {canSort ? (
-                        <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-8 items-center gap-1 hover:text-ink">
-                          <table.FlexRender header={h} />
-                          <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : (
-                        <table.FlexRender header={h} />
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {rows.map((row, i) => (
-              <tr key={row.id} className={cx('border-t border-line', i % 2 === 1 && 'bg-paper/60')}>
-                {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2 align-middle">
-                    <table.FlexRender cell={cell} />
-                  </td>
+                {hg.headers.map((h) => (
+                  <SortHeading key={h.id} column={h.column} buttonClassName="inline-flex min-h-8 items-center gap-1 hover:text-ink">
+                    <table.FlexRender header={h} />
+                  </SortHeading>
                 ))}
               </tr>
             ))}
-            {rows.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-soft">{empty}</td>
-              </tr>
-            )}
-          </tbody>
+          </thead>
+          <StripedBody table={table} columnCount={columns.length} empty={empty} emptyClassName="px-3 py-6 text-center text-ink-soft" />
         </table>
       </div>
     </div>

@@ -8,6 +8,7 @@ import type { DiagnosisListQuery, DiagnosisRow } from '@shared/stats/debrief-sch
 import { Badge, Card, PageHeader, Spinner, Alert } from '../../../components/ui/card';
 import { Button, buttonClass } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
+import { SortHeading, StripedBody } from '../../../components/ui/data-table';
 import { debriefQueries, diagnosesCsvUrl } from '../api/queries';
 import { useDiagnosisFilters } from '../hooks/use-diagnosis-filters';
 import { DiagnosisFilters } from './diagnosis-filters';
@@ -45,16 +46,15 @@ function Flags({ row }: { row: DiagnosisRow }) {
   );
 }
 
-/** Every diagnosis of the shop: filtered, sorted and paged on the server. */
-export function DiagnosesPage() {
-  const [q, update] = useDiagnosisFilters();
-  const query = { ...q, page: q.page ?? 1, pageSize: q.pageSize ?? 25 };
-  const { data, isLoading, error, isFetching } = useQuery(debriefQueries.diagnoses(query));
+type PageQuery = Partial<DiagnosisListQuery> & { page: number; pageSize: number };
+type Update = ReturnType<typeof useDiagnosisFilters>[1];
+
+/** Sorting and paging are the server's: the table only turns header clicks and page buttons into URL changes. */
+function useDiagnosisTable(query: PageQuery, rows: DiagnosisRow[], total: number, update: Update) {
   const sorting: SortingState = [{ id: query.sort ?? 'startedAt', desc: (query.dir ?? 'desc') === 'desc' }];
   const pagination: PaginationState = { pageIndex: query.page - 1, pageSize: query.pageSize };
-  const rows = useMemo(() => data?.rows ?? [], [data]);
-  const table = useTable({
-    features, columns, data: rows, manualSorting: true, manualPagination: true, rowCount: data?.total ?? 0,
+  return useTable({
+    features, columns, data: rows, manualSorting: true, manualPagination: true, rowCount: total,
     state: { sorting, pagination },
     onSortingChange: (u) => {
       const next = typeof u === 'function' ? u(sorting) : u;
@@ -66,6 +66,51 @@ export function DiagnosesPage() {
       update({ page: next.pageIndex + 1, pageSize: next.pageSize });
     },
   });
+}
+
+type DiagnosisTable = ReturnType<typeof useDiagnosisTable>;
+
+function DiagnosisTableView({ table, total, fetching }: { table: DiagnosisTable; total: number; fetching: boolean }) {
+  return (
+    <div className={cx('overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel', fetching && 'opacity-70')}>
+      <table className="w-full text-left">
+        <caption className="sr-only">Diagnoses, {total} in this selection</caption>
+        <thead className="bg-ink/5">
+          {table.getHeaderGroups().map((hg) => (
+            <tr key={hg.id}>
+              {hg.headers.map((h) => (
+                <SortHeading key={h.id} column={h.column} buttonClassName="inline-flex min-h-8 items-center gap-1 uppercase tracking-wide hover:text-ink">
+                  <table.FlexRender header={h} />
+                </SortHeading>
+              ))}
+            </tr>
+          ))}
+        </thead>
+        <StripedBody table={table} columnCount={columns.length} empty="No diagnoses match these filters." emptyClassName="px-3 py-8 text-center text-ink-soft" />
+      </table>
+    </div>
+  );
+}
+
+function Pager({ table, total, page, pages }: { table: DiagnosisTable; total: number | undefined; page: number; pages: number }) {
+  return (
+    <nav className="mt-3 flex flex-wrap items-center justify-between gap-2" aria-label="Pages">
+      <p className="text-ink-soft">{total !== undefined ? `${total.toLocaleString()} diagnoses · page ${page} of ${pages}` : ''}</p>
+      <div className="flex gap-2">
+        <Button variant="secondary" disabled={page <= 1} onClick={() => table.previousPage()}>Previous</Button>
+        <Button variant="secondary" disabled={page >= pages} onClick={() => table.nextPage()}>Next</Button>
+      </div>
+    </nav>
+  );
+}
+
+/** Every diagnosis of the shop: filtered, sorted and paged on the server. */
+export function DiagnosesPage() {
+  const [q, update] = useDiagnosisFilters();
+  const query = { ...q, page: q.page ?? 1, pageSize: q.pageSize ?? 25 };
+  const { data, isLoading, error, isFetching } = useQuery(debriefQueries.diagnoses(query));
+  const rows = useMemo(() => data?.rows ?? [], [data]);
+  const table = useDiagnosisTable(query, rows, data?.total ?? 0, update);
   const procedures = useQuery(debriefQueries.procedures());
   const endingTitle = (id: string) =>
     procedures.data?.flatMap((p) => p.document.steps).find((st) => st.id === id)?.title ?? rows.find((r) => r.endingStepId === id)?.endingTitle ?? id;
@@ -82,47 +127,8 @@ export function DiagnosesPage() {
         </p>
       )}
       {error && <Alert title="The diagnoses could not be loaded">{(error as Error).message}</Alert>}
-      {isLoading ? <Spinner label="Loading diagnoses" /> : (
-        <div className={cx('overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel', isFetching && 'opacity-70')}>
-          <table className="w-full text-left">
-            <caption className="sr-only">Diagnoses, {data?.total ?? 0} in this selection</caption>
-            <thead className="bg-ink/5">
-              {table.getHeaderGroups().map((hg) => (
-                <tr key={hg.id}>
-                  {hg.headers.map((h) => {
-                    const sorted = h.column.getIsSorted();
-                    return (
-                      <th key={h.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                        className="px-3 py-2 text-sm font-bold uppercase tracking-wide text-ink-soft">
-                        {h.column.getCanSort() ? (
-                          <button type="button" onClick={h.column.getToggleSortingHandler()} className="inline-flex min-h-8 items-center gap-1 uppercase tracking-wide hover:text-ink">
-                            <table.FlexRender header={h} /><span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                          </button>
-                        ) : <table.FlexRender header={h} />}
-                      </th>
-                    );
-                  })}
-                </tr>
-              ))}
-            </thead>
-            <tbody>
-              {table.getRowModel().rows.map((row, i) => (
-                <tr key={row.id} className={cx('border-t border-line', i % 2 === 1 && 'bg-paper/60')}>
-                  {row.getAllCells().map((cell) => <td key={cell.id} className="px-3 py-2 align-middle"><table.FlexRender cell={cell} /></td>)}
-                </tr>
-              ))}
-              {rows.length === 0 && <tr><td colSpan={columns.length} className="px-3 py-8 text-center text-ink-soft">No diagnoses match these filters.</td></tr>}
-            </tbody>
-          </table>
-        </div>
-      )}
-      <nav className="mt-3 flex flex-wrap items-center justify-between gap-2" aria-label="Pages">
-        <p className="text-ink-soft">{data ? `${data.total.toLocaleString()} diagnoses · page ${query.page} of ${pages}` : ''}</p>
-        <div className="flex gap-2">
-          <Button variant="secondary" disabled={query.page <= 1} onClick={() => table.previousPage()}>Previous</Button>
-          <Button variant="secondary" disabled={query.page >= pages} onClick={() => table.nextPage()}>Next</Button>
-        </div>
-      </nav>
+      {isLoading ? <Spinner label="Loading diagnoses" /> : <DiagnosisTableView table={table} total={data?.total ?? 0} fetching={isFetching} />}
+      <Pager table={table} total={data?.total} page={query.page} pages={pages} />
     </>
   );
 }
