@@ -51,6 +51,47 @@ function Row({ p, canAuthor, canArchive }: { p: ProcedureRow; canAuthor: boolean
   );
 }
 
+const STATUS_OPTIONS: [ListFilter['status'], string][] = [
+  ['any', 'Any'], ['draft', 'Has a draft'], ['in_review', 'In review'], ['published', 'Published'], ['unpublished', 'Never published'],
+];
+
+function ListFilters({ filter, onChange }: { filter: ListFilter; onChange: (f: ListFilter) => void }) {
+  return (
+    <div role="search" className="mb-3 flex flex-wrap items-end gap-3">
+      <label className="flex flex-col gap-1 font-semibold">Search
+        <Input type="search" value={filter.q} placeholder="Title or symptom" className="w-72" onChange={(e) => onChange({ ...filter, q: e.target.value })} />
+      </label>
+      <label className="flex flex-col gap-1 font-semibold">Status
+        <Select value={filter.status} className="w-56" onChange={(e) => onChange({ ...filter, status: e.target.value as ListFilter['status'] })}>
+          {STATUS_OPTIONS.map(([value, label]) => <option key={value} value={value}>{label}</option>)}
+        </Select>
+      </label>
+      <label className="flex min-h-11 items-center gap-2 font-semibold">
+        <input type="checkbox" className="h-5 w-5 accent-[var(--color-signal)]" checked={filter.archived} onChange={(e) => onChange({ ...filter, archived: e.target.checked })} />
+        Archived only
+      </label>
+    </div>
+  );
+}
+
+function ProcedureTable({ rows, canAuthor, canArchive }: { rows: ProcedureRow[]; canAuthor: boolean; canArchive: boolean }) {
+  return (
+    <div className="overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel">
+      <table className="w-full text-left">
+        <caption className="sr-only">Procedures</caption>
+        <thead className="bg-ink/5 text-sm uppercase tracking-wide text-ink-soft">
+          <tr>
+            {['Procedure', 'Symptom', 'Ignition', 'Draft', 'Published', 'Last edited', 'Diagnoses', ''].map((h, i) => (
+              <th key={i} scope="col" className={`px-3 py-2 font-bold ${h === 'Diagnoses' ? 'text-right' : ''}`}>{h || <span className="sr-only">Actions</span>}</th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>{rows.map((p) => <Row key={p.id} p={p} canAuthor={canAuthor} canArchive={canArchive} />)}</tbody>
+      </table>
+    </div>
+  );
+}
+
 /** Drafting home: the shop's procedures with their draft and published state. */
 export function ProcedureListPage() {
   const { roles } = useSession();
@@ -67,42 +108,11 @@ export function ProcedureListPage() {
         actions={canAuthor && <><ImportButton /><Button onClick={() => setCreating((c) => !c)}>New procedure</Button></>}
       />
       {creating && <CreateProcedureForm onCancel={() => setCreating(false)} />}
-      <div role="search" className="mb-3 flex flex-wrap items-end gap-3">
-        <label className="flex flex-col gap-1 font-semibold">Search
-          <Input type="search" value={filter.q} placeholder="Title or symptom" className="w-72" onChange={(e) => setFilter({ ...filter, q: e.target.value })} />
-        </label>
-        <label className="flex flex-col gap-1 font-semibold">Status
-          <Select value={filter.status} className="w-56" onChange={(e) => setFilter({ ...filter, status: e.target.value as ListFilter['status'] })}>
-            <option value="any">Any</option>
-            <option value="draft">Has a draft</option>
-            <option value="in_review">In review</option>
-            <option value="published">Published</option>
-            <option value="unpublished">Never published</option>
-          </Select>
-        </label>
-        <label className="flex min-h-11 items-center gap-2 font-semibold">
-          <input type="checkbox" className="h-5 w-5 accent-[var(--color-signal)]" checked={filter.archived} onChange={(e) => setFilter({ ...filter, archived: e.target.checked })} />
-          Archived only
-        </label>
-      </div>
+      <ListFilters filter={filter} onChange={setFilter} />
       {list.isLoading && <Spinner label="Loading procedures" />}
       {list.error && <Alert title="The list could not be loaded">{list.error.message}</Alert>}
       {list.data && list.data.length === 0 && <EmptyState title="No procedures match">Change the search, or create a new procedure.</EmptyState>}
-      {list.data && list.data.length > 0 && (
-        <div className="overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel">
-          <table className="w-full text-left">
-            <caption className="sr-only">Procedures</caption>
-            <thead className="bg-ink/5 text-sm uppercase tracking-wide text-ink-soft">
-              <tr>
-                {['Procedure', 'Symptom', 'Ignition', 'Draft', 'Published', 'Last edited', 'Diagnoses', ''].map((h, i) => (
-                  <th key={i} scope="col" className={`px-3 py-2 font-bold ${h === 'Diagnoses' ? 'text-right' : ''}`}>{h || <span className="sr-only">Actions</span>}</th>
-                ))}
-              </tr>
-            </thead>
-            <tbody>{list.data.map((p) => <Row key={p.id} p={p} canAuthor={canAuthor} canArchive={canArchive} />)}</tbody>
-          </table>
-        </div>
-      )}
+      {list.data && list.data.length > 0 && <ProcedureTable rows={list.data} canAuthor={canAuthor} canArchive={canArchive} />}
     </div>
   );
 }
