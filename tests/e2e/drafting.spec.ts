@@ -159,8 +159,13 @@ test('an author builds a procedure from the palette, fixes a band gap, previews 
   await shot(page, 'drafting-preview');
   await page.getByRole('button', { name: 'Close preview' }).click();
 
+  // Sent, then taken back (the author spotted something) and sent again.
   await page.getByRole('button', { name: 'Send for review' }).click();
-  await expect(page.getByText('In review')).toBeVisible();
+  await expect(page.getByText('In review: read only. Take it back to edit, or wait for the lead.')).toBeVisible();
+  await page.getByRole('button', { name: 'Take back to edit' }).click();
+  await expect(page.getByRole('button', { name: 'Undo' })).toBeVisible();
+  await page.getByRole('button', { name: 'Send for review' }).click();
+  await expect(page.getByText('In review', { exact: true })).toBeVisible();
   const url = page.url();
 
   const leadContext = await browser.newContext({ viewport: { width: 1600, height: 1000 } });

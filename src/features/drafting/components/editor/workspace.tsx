@@ -163,7 +163,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, versions, o
     <div className="flex h-[calc(100dvh-7.5rem)] min-h-[560px] flex-col gap-2">
       <WorkspaceHeader title={doc.meta.title} ids={ids} version={version} versions={versions} roles={roles} hasOpenDraft={hasOpenDraft}
         saving={saving} editable={editable} checked={checked} report={report} onReload={onReload} />
-      <EditorTools status={version.status} editable={editable} history={history} preview={preview} dirty={saving.dirty} onSave={saving.save} commands={commands} />
+      <EditorTools status={version.status} author={roles.includes('author')} editable={editable} history={history} preview={preview} dirty={saving.dirty} onSave={saving.save} commands={commands} />
       <SaveProblems state={saving.state} doc={doc} onReload={onReload} />
       <div className="flex min-h-0 flex-1 gap-2">
         {editable && <aside className="w-44 shrink-0 overflow-y-auto"><Palette disabled={!editable} onAdd={commands.addAtCentre} /></aside>}
@@ -204,6 +204,7 @@ function WorkspaceHeader({ ids, version, roles, hasOpenDraft, versions, onReload
 
 interface ToolsProps {
   status: VersionDetail['status'];
+  author: boolean;
   editable: boolean;
   history: History;
   preview: boolean;
@@ -212,7 +213,16 @@ interface ToolsProps {
   commands: Commands;
 }
 
-function EditorTools({ status, editable, history, preview, dirty, onSave, commands }: ToolsProps) {
+const EDITING_HINT = 'Shift-drag to select several · Ctrl+C / Ctrl+V copies steps · Delete removes · L arranges · F fits · P previews';
+
+/** Why this version can't be edited here, and the way on. */
+function readOnlyHint(status: VersionDetail['status'], author: boolean): string {
+  if (status === 'in_review') return author ? 'In review: read only. Take it back to edit, or wait for the lead.' : 'Read only: only authors edit drafts.';
+  if (status === 'draft') return 'Read only: only authors edit drafts.';
+  return 'A numbered version never changes; start a new draft from it to make changes.';
+}
+
+function EditorTools({ status, author, editable, history, preview, dirty, onSave, commands }: ToolsProps) {
   return (
     <div className="flex flex-wrap items-center gap-1" role="toolbar" aria-label="Editor tools">
       {editable && (
@@ -225,9 +235,7 @@ function EditorTools({ status, editable, history, preview, dirty, onSave, comman
       <ToolButton label="Fit to view" shortcut="F" onClick={commands.fit}>Fit</ToolButton>
       <ToolButton label="Preview as a technician" shortcut="P" pressed={preview} onClick={commands.togglePreview}>Preview</ToolButton>
       {editable && <ToolButton label="Save now" disabled={!dirty} onClick={() => void onSave()}>Save</ToolButton>}
-      <span className="ml-2 text-xs text-ink-soft">{editable
-        ? 'Shift-drag to select several · Ctrl+C / Ctrl+V copies steps · Delete removes · L arranges · F fits · P previews'
-        : status === 'draft' || status === 'in_review' ? 'Read only: only authors edit drafts.' : 'A numbered version never changes; start a new draft from it to make changes.'}</span>
+      <span className="ml-2 text-xs text-ink-soft">{editable ? EDITING_HINT : readOnlyHint(status, author)}</span>
     </div>
   );
 }
