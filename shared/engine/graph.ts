@@ -84,15 +84,24 @@ function forEachTarget(step: Step, visit: (to: string, local: number) => void): 
   }
 }
 
-/** Compiles a document once; the soundness check, the walker's helpers and path figures share it. */
-export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
-  const { steps, index, duplicates } = buildIndex(doc);
+interface OutEdges {
+  readonly outStart: Int32Array;
+  readonly targets: Int32Array;
+  /** Position of each edge among its step's branches (`branchesOf` order). */
+  readonly local: Int32Array;
+  readonly ending: Uint8Array;
+  /** Steps with a branch to an id that does not exist (once per such branch). */
+  readonly danglingFrom: readonly number[];
+}
+
+/** Out-edges in compressed rows; a branch to a missing step is left out and noted. */
+function outEdges(steps: readonly Step[], index: ReadonlyMap<string, number>): OutEdges {
   const n = steps.length;
   const outStart = new Int32Array(n + 1);
   let capacity = 0;
   for (const step of steps) capacity += branchCount(step);
   const targetBuffer = new Int32Array(capacity);
-  const localBuffer = new Int32Array(capacity);
+  const local = new Int32Array(capacity);
   const danglingFrom: number[] = [];
   const ending = new Uint8Array(n);
   let m = 0;
@@ -100,28 +109,37 @@ export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
     const step = steps[v]!;
     ending[v] = isEnding(step) ? 1 : 0;
     outStart[v] = m;
-    forEachTarget(step, (to, local) => {
+    forEachTarget(step, (to, branch) => {
       const w = index.get(to);
       if (w === undefined) danglingFrom.push(v);
       else {
         targetBuffer[m] = w;
-        localBuffer[m++] = local;
+        local[m++] = branch;
       }
     });
   }
   outStart[n] = m;
-  const targets = targetBuffer.slice(0, m);
-  const inStart = new Int32Array(n + 1);
+  return { outStart, targets: targetBuffer.slice(0, m), local, ending, danglingFrom };
+}
+
+/** In-edges: the out-edges turned round by a counting sort on their targets. */
+function inEdges(size: number, outStart: Int32Array, targets: Int32Array): { inStart: Int32Array; sources: Int32Array } {
+  const inStart = new Int32Array(size + 1);
   for (const w of targets) inStart[w + 1]!++;
-  for (let v = 0; v < n; v++) inStart[v + 1]! += inStart[v]!;
-  const fill = inStart.slice(0, n);
-  const sources = new Int32Array(m);
-  for (let v = 0; v < n; v++) {
+  for (let v = 0; v < size; v++) inStart[v + 1]! += inStart[v]!;
+  const fill = inStart.slice(0, size);
+  const sources = new Int32Array(targets.length);
+  for (let v = 0; v < size; v++) {
     for (let e = outStart[v]!; e < outStart[v + 1]!; e++) sources[fill[targets[e]!]!++] = v;
   }
-  const dangling = [...new Set(danglingFrom)].flatMap((v) => branchesOf(steps[v]!).filter((b) => !index.has(b.to)));
-  // Branch objects (labels, handles) are built only when asked for: most callers need targets only.
-  const edgeBranch = (e: number): Branch => {
+  return { inStart, sources };
+}
+
+// Branch objects (labels, handles) are built only when asked for: most callers need targets only.
+function branchOfEdge(steps: readonly Step[], outStart: Int32Array, local: Int32Array): (e: number) => Branch {
+  const n = steps.length;
+  return (e) => {
+    // the step whose row holds edge e: the last v with outStart[v] <= e, then past empty rows
     let v = 0;
     let lo = 0;
     let hi = n - 1;
@@ -133,7 +151,16 @@ export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
       } else hi = mid - 1;
     }
     while (v < n && outStart[v + 1]! <= e) v++;
-    return branchesOf(steps[v]!)[localBuffer[e]!]!;
+    return branchesOf(steps[v]!)[local[e]!]!;
   };
-  return { size: n, steps, index, start: index.get(doc.start) ?? -1, ending, outStart, targets, edgeBranch, inStart, sources, dangling, duplicates };
+}
+
+/** Compiles a document once; the soundness check, the walker's helpers and path figures share it. */
+export function buildGraph(doc: ProcedureDocument): ProcedureGraph {
+  const { steps, index, duplicates } = buildIndex(doc);
+  const { outStart, targets, local, ending, danglingFrom } = outEdges(steps, index);
+  const { inStart, sources } = inEdges(steps.length, outStart, targets);
+  const dangling = [...new Set(danglingFrom)].flatMap((v) => branchesOf(steps[v]!).filter((b) => !index.has(b.to)));
+  const edgeBranch = branchOfEdge(steps, outStart, local);
+  return { size: steps.length, steps, index, start: index.get(doc.start) ?? -1, ending, outStart, targets, edgeBranch, inStart, sources, dangling, duplicates };
 }
