@@ -45,8 +45,19 @@ export interface Components {
   readonly cyclic: Uint8Array;
 }
 
+/** 1 for each component that is a loop: more than one step, or a step that branches to itself. */
+function loopComponents(g: ProcedureGraph, comp: Int32Array, sizes: readonly number[]): Uint8Array {
+  const cyclic = new Uint8Array(sizes.length);
+  for (let v = 0; v < g.size; v++) {
+    if (sizes[comp[v]!]! > 1) cyclic[comp[v]!] = 1;
+    for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) if (g.targets[e] === v) cyclic[comp[v]!] = 1;
+  }
+  return cyclic;
+}
+
 /** Tarjan's strongly connected components, iterative (Tarjan 1972; explicit call stack). */
 export function stronglyConnected(g: ProcedureGraph): Components {
+  // One piece on purpose: the indices, low-links and both stacks change together; split up, the textbook shape is lost.
   const n = g.size;
   const indexOf = new Int32Array(n).fill(-1);
   const low = new Int32Array(n);
@@ -94,12 +105,7 @@ export function stronglyConnected(g: ProcedureGraph): Components {
       count++;
     }
   }
-  const cyclic = new Uint8Array(count);
-  for (let v = 0; v < n; v++) {
-    if (sizes[comp[v]!]! > 1) cyclic[comp[v]!] = 1;
-    for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) if (g.targets[e] === v) cyclic[comp[v]!] = 1;
-  }
-  return { comp, count, sizes: Int32Array.from(sizes), cyclic };
+  return { comp, count, sizes: Int32Array.from(sizes), cyclic: loopComponents(g, comp, sizes) };
 }
 
 /** Depth-first order from the start: reverse postorder (a topological order once back edges are dropped). */
