@@ -34,6 +34,49 @@ export function LimitsBox({ view }: { view: StepView }) {
   );
 }
 
+type Send = (a: Partial<Omit<Answer, 'startedAt'>>) => Promise<void>;
+
+interface AnswerProps {
+  view: StepView;
+  step: Step;
+  values: Readonly<Record<string, FormulaValue>>;
+  remeasured: number;
+  locked: boolean;
+  reading: ReadingValue;
+  onReading(r: ReadingValue): void;
+  send: Send;
+}
+
+/** The control the step's kind asks for: a reading, one answer of an observation, or done. */
+function AnswerControls({ view, step, values, remeasured, locked, reading, onReading, send }: AnswerProps) {
+  return (
+    <>
+      {step.kind === 'reading' && (
+        <>
+          <ReadingField step={step} values={values} remeasured={remeasured} disabled={locked} onChange={onReading} />
+          <button type="button" className={`${big} bg-ink text-white`} disabled={!reading.valid}
+            onClick={() => void send({ entered: reading.entered, ...(reading.leadEntered.trim() ? { leadEntered: reading.leadEntered } : {}) })}>
+            Save reading and continue
+          </button>
+        </>
+      )}
+      {step.kind === 'observation' && (
+        <>
+          <p className="text-xl font-bold">{view.question}</p>
+          <div className="grid gap-3">
+            {view.answers?.map((a) => (
+              <button key={a.id} type="button" className={`${big} border-4 border-ink bg-panel text-ink hover:bg-signal-soft`} onClick={() => void send({ answerId: a.id })}>{a.label}</button>
+            ))}
+          </div>
+        </>
+      )}
+      {step.kind === 'task' && (
+        <button type="button" className={`${big} bg-ink text-white`} onClick={() => void send({})}>{view.confirmLabel ?? 'Done'}</button>
+      )}
+    </>
+  );
+}
+
 /** One step to answer: instruction, safety, limits, then the control its kind asks for. */
 export function StepCard({ view, step, values, remeasure, remeasured, extras, onAnswer }: {
   view: StepView; step: Step; values: Readonly<Record<string, FormulaValue>>; remeasure: boolean; remeasured: number;
@@ -45,7 +88,7 @@ export function StepCard({ view, step, values, remeasure, remeasured, extras, on
   const [note, setNote] = useState('');
   const [busy, setBusy] = useState(false);
   const locked = !acknowledged || busy;
-  const send = async (a: Partial<Omit<Answer, 'startedAt'>>) => {
+  const send: Send = async (a) => {
     setBusy(true);
     try {
       await onAnswer({ stepId: view.id, note, acknowledged: view.mustAcknowledge ? acknowledged : false, ...a });
@@ -63,28 +106,7 @@ export function StepCard({ view, step, values, remeasure, remeasured, extras, on
       {extras(note, setNote)}
       <fieldset disabled={locked} className="space-y-3">
         <legend className="sr-only">Answer</legend>
-        {step.kind === 'reading' && (
-          <>
-            <ReadingField step={step} values={values} remeasured={remeasured} disabled={locked} onChange={setReading} />
-            <button type="button" className={`${big} bg-ink text-white`} disabled={!reading.valid}
-              onClick={() => void send({ entered: reading.entered, ...(reading.leadEntered.trim() ? { leadEntered: reading.leadEntered } : {}) })}>
-              Save reading and continue
-            </button>
-          </>
-        )}
-        {step.kind === 'observation' && (
-          <>
-            <p className="text-xl font-bold">{view.question}</p>
-            <div className="grid gap-3">
-              {view.answers?.map((a) => (
-                <button key={a.id} type="button" className={`${big} border-4 border-ink bg-panel text-ink hover:bg-signal-soft`} onClick={() => void send({ answerId: a.id })}>{a.label}</button>
-              ))}
-            </div>
-          </>
-        )}
-        {step.kind === 'task' && (
-          <button type="button" className={`${big} bg-ink text-white`} onClick={() => void send({})}>{view.confirmLabel ?? 'Done'}</button>
-        )}
+        <AnswerControls view={view} step={step} values={values} remeasured={remeasured} locked={locked} reading={reading} onReading={setReading} send={send} />
       </fieldset>
     </article>
   );
