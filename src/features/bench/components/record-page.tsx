@@ -8,7 +8,7 @@ import { PageHeader, Alert, Spinner, Badge } from '../../../components/ui/card';
 import { Button } from '../../../components/ui/button';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
-import type { RecordStep } from '../api/types';
+import type { DiagnosisRecord, RecordStep } from '../api/types';
 import { SyncBadge } from './sync-badge';
 
 const VERDICT: Record<string, [string, 'go' | 'stop' | 'edge']> = {
@@ -36,6 +36,46 @@ function answer(s: RecordStep): string {
   return s.kind === 'task' ? 'done' : '';
 }
 
+const yesNo = (b: boolean) => (b ? 'yes' : 'no');
+
+function TimelineStep({ s, attachments }: { s: RecordStep; attachments: DiagnosisRecord['attachments'] }) {
+  return (
+    <li className={`rounded-lg border border-line p-3 break-inside-avoid ${s.superseded ? 'border-dashed bg-paper' : 'bg-panel'}`}>
+      <div className="flex flex-wrap items-center gap-2">
+        <span className="font-bold">{s.seq}. {s.shown.title ?? s.stepId}</span>
+        {s.verdict && <Badge tone={VERDICT[s.verdict]?.[1] ?? 'edge'}>{VERDICT[s.verdict]?.[0]}</Badge>}
+        {s.superseded && <Badge>changed later</Badge>}
+        <span className="ml-auto text-sm text-ink-soft">{new Date(s.answeredAt).toLocaleTimeString()}</span>
+      </div>
+      <p className="text-lg">{answer(s)}{s.shown.limitsText ? <span className="text-ink-soft"> · limits {s.shown.limitsText}</span> : null}</p>
+      {corrections(s) && <p className="text-ink-soft">{corrections(s)}</p>}
+      {s.shown.cause && <p><strong>Cause:</strong> {s.shown.cause} <strong>Repair:</strong> {s.shown.repair}</p>}
+      {s.note && <p className="text-ink-soft">Note: {s.note}</p>}
+      {attachments.filter((a) => a.stepId === s.stepId && !s.superseded).map((a) => <img key={a.id} src={`/api/attachments/${a.id}/thumb`} alt={`Photo ${a.originalName}`} className="mt-2 inline-block h-24 w-24 rounded border border-line object-cover" />)}
+    </li>
+  );
+}
+
+function Outcome({ outcome }: { outcome: NonNullable<DiagnosisRecord['outcome']> }) {
+  return (
+    <section className="rounded-lg border-2 border-ink/30 bg-panel p-3">
+      {outcome.reason && <p><strong>Handed off:</strong> {outcome.reason}</p>}
+      {outcome.partsFitted && <p><strong>Parts fitted:</strong> {outcome.partsFitted.map((p) => `${p.name}${p.lot ? ` (lot ${p.lot})` : ''}`).join(', ') || 'none'}</p>}
+      {outcome.finalCheck && <p><strong>Final check:</strong> spark {yesNo(outcome.finalCheck.spark)}, runs {yesNo(outcome.finalCheck.runs)}, stops {yesNo(outcome.finalCheck.stops)}</p>}
+      {outcome.labourMinutes !== undefined && <p><strong>Labour:</strong> {outcome.labourMinutes} min</p>}
+    </section>
+  );
+}
+
+function CoachingNotes({ notes }: { notes: DiagnosisRecord['coachingNotes'] }) {
+  return (
+    <section aria-labelledby="coaching" className="space-y-2">
+      <h2 id="coaching" className="text-xl font-bold">Coaching notes</h2>
+      {notes.map((n) => <blockquote key={n.id} className="rounded-lg border-l-4 border-notice bg-panel p-3">{n.body}<footer className="text-sm text-ink-soft">— {n.authorName ?? 'Trainer'}{n.stepId ? ` on ${n.stepId}` : ''}</footer></blockquote>)}
+    </section>
+  );
+}
+
 /** The complete record as a printable timeline, with the e-mail report and coaching notes. */
 export function RecordPage() {
   const { id = '' } = useParams();
@@ -54,36 +94,10 @@ export function RecordPage() {
       <PageHeader title={`${r.vehicleLabel} · ${r.procedureTitle}`} subtitle={`Version ${r.versionNumber} · ${r.technicianName} · started ${new Date(r.startedAt).toLocaleString()}`} actions={<span className="no-print"><SyncBadge /></span>} />
       <p className="text-lg"><strong>Complaint:</strong> {r.complaint}</p>
       <ol className="space-y-2" aria-label="Timeline">
-        {r.steps.map((s) => (
-          <li key={s.id} className={`rounded-lg border border-line p-3 break-inside-avoid ${s.superseded ? 'border-dashed bg-paper' : 'bg-panel'}`}>
-            <div className="flex flex-wrap items-center gap-2">
-              <span className="font-bold">{s.seq}. {s.shown.title ?? s.stepId}</span>
-              {s.verdict && <Badge tone={VERDICT[s.verdict]?.[1] ?? 'edge'}>{VERDICT[s.verdict]?.[0]}</Badge>}
-              {s.superseded && <Badge>changed later</Badge>}
-              <span className="ml-auto text-sm text-ink-soft">{new Date(s.answeredAt).toLocaleTimeString()}</span>
-            </div>
-            <p className="text-lg">{answer(s)}{s.shown.limitsText ? <span className="text-ink-soft"> · limits {s.shown.limitsText}</span> : null}</p>
-            {corrections(s) && <p className="text-ink-soft">{corrections(s)}</p>}
-            {s.shown.cause && <p><strong>Cause:</strong> {s.shown.cause} <strong>Repair:</strong> {s.shown.repair}</p>}
-            {s.note && <p className="text-ink-soft">Note: {s.note}</p>}
-            {r.attachments.filter((a) => a.stepId === s.stepId && !s.superseded).map((a) => <img key={a.id} src={`/api/attachments/${a.id}/thumb`} alt={`Photo ${a.originalName}`} className="mt-2 inline-block h-24 w-24 rounded border border-line object-cover" />)}
-          </li>
-        ))}
+        {r.steps.map((s) => <TimelineStep key={s.id} s={s} attachments={r.attachments} />)}
       </ol>
-      {r.outcome && (
-        <section className="rounded-lg border-2 border-ink/30 bg-panel p-3">
-          {r.outcome.reason && <p><strong>Handed off:</strong> {r.outcome.reason}</p>}
-          {r.outcome.partsFitted && <p><strong>Parts fitted:</strong> {r.outcome.partsFitted.map((p) => `${p.name}${p.lot ? ` (lot ${p.lot})` : ''}`).join(', ') || 'none'}</p>}
-          {r.outcome.finalCheck && <p><strong>Final check:</strong> spark {r.outcome.finalCheck.spark ? 'yes' : 'no'}, runs {r.outcome.finalCheck.runs ? 'yes' : 'no'}, stops {r.outcome.finalCheck.stops ? 'yes' : 'no'}</p>}
-          {r.outcome.labourMinutes !== undefined && <p><strong>Labour:</strong> {r.outcome.labourMinutes} min</p>}
-        </section>
-      )}
-      {r.coachingNotes.length > 0 && (
-        <section aria-labelledby="coaching" className="space-y-2">
-          <h2 id="coaching" className="text-xl font-bold">Coaching notes</h2>
-          {r.coachingNotes.map((n) => <blockquote key={n.id} className="rounded-lg border-l-4 border-notice bg-panel p-3">{n.body}<footer className="text-sm text-ink-soft">— {n.authorName ?? 'Trainer'}{n.stepId ? ` on ${n.stepId}` : ''}</footer></blockquote>)}
-        </section>
-      )}
+      {r.outcome && <Outcome outcome={r.outcome} />}
+      {r.coachingNotes.length > 0 && <CoachingNotes notes={r.coachingNotes} />}
       <LimitsNotice />
       <div className="no-print grid gap-2 sm:grid-cols-2">
         <Button size="lg" className="min-h-14" onClick={() => window.print()}>Print</Button>
