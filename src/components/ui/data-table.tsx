@@ -31,7 +31,7 @@ const SORT_MARK = { asc: '▲', desc: '▼' } as const;
  * A column heading: one that sorts is a button, and screen readers hear which way it is
  * sorted. `buttonClassName` lets a page keep its own heading look.
  */
-export function SortHeading({ column, buttonClassName, children }: { column: SortableColumn; buttonClassName: string; children: ReactNode }) {
+function SortHeading({ column, buttonClassName, children }: { column: SortableColumn; buttonClassName: string; children: ReactNode }) {
   const sorted = column.getIsSorted();
   return (
     <th scope="col" aria-sort={sorted ? ARIA_SORT[sorted] : undefined} className="px-3 py-2 text-sm font-bold uppercase tracking-wide text-ink-soft">
@@ -42,6 +42,21 @@ export function SortHeading({ column, buttonClassName, children }: { column: Sor
         </button>
       ) : children}
     </th>
+  );
+}
+
+/** The heading rows of a table; `render` draws a heading's own content (the table's FlexRender). */
+export function SortingHead<H extends { id: string; column: SortableColumn }>({ groups, buttonClassName, render }: {
+  groups: { id: string; headers: H[] }[]; buttonClassName: string; render: (header: H) => ReactNode;
+}) {
+  return (
+    <thead className="bg-ink/5">
+      {groups.map((hg) => (
+        <tr key={hg.id}>
+          {hg.headers.map((h) => <SortHeading key={h.id} column={h.column} buttonClassName={buttonClassName}>{render(h)}</SortHeading>)}
+        </tr>
+      ))}
+    </thead>
   );
 }
 
@@ -89,17 +104,7 @@ export function DataTable<T extends RowData>({ data, columns, label, filterPlace
       <div className="overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel">
         <table className="w-full text-left">
           <caption className="sr-only">{label}</caption>
-          <thead className="bg-ink/5">
-            {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
-                {hg.headers.map((h) => (
-                  <SortHeading key={h.id} column={h.column} buttonClassName="inline-flex min-h-8 items-center gap-1 hover:text-ink">
-                    <table.FlexRender header={h} />
-                  </SortHeading>
-                ))}
-              </tr>
-            ))}
-          </thead>
+          <SortingHead groups={table.getHeaderGroups()} buttonClassName="inline-flex min-h-8 items-center gap-1 hover:text-ink" render={(h) => <table.FlexRender header={h} />} />
           <StripedBody table={table} columnCount={columns.length} empty={empty} emptyClassName="px-3 py-6 text-center text-ink-soft" />
         </table>
       </div>

@@ -8,7 +8,7 @@ import type { DiagnosisListQuery, DiagnosisRow } from '@shared/stats/debrief-sch
 import { Badge, Card, PageHeader, Spinner, Alert } from '../../../components/ui/card';
 import { Button, buttonClass } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
-import { SortHeading, StripedBody } from '../../../components/ui/data-table';
+import { SortingHead, StripedBody } from '../../../components/ui/data-table';
 import { debriefQueries, diagnosesCsvUrl } from '../api/queries';
 import { useDiagnosisFilters } from '../hooks/use-diagnosis-filters';
 import { DiagnosisFilters } from './diagnosis-filters';
@@ -75,17 +75,8 @@ function DiagnosisTableView({ table, total, fetching }: { table: DiagnosisTable;
     <div className={cx('overflow-x-auto rounded-[var(--radius-card)] border border-line bg-panel', fetching && 'opacity-70')}>
       <table className="w-full text-left">
         <caption className="sr-only">Diagnoses, {total} in this selection</caption>
-        <thead className="bg-ink/5">
-          {table.getHeaderGroups().map((hg) => (
-            <tr key={hg.id}>
-              {hg.headers.map((h) => (
-                <SortHeading key={h.id} column={h.column} buttonClassName="inline-flex min-h-8 items-center gap-1 uppercase tracking-wide hover:text-ink">
-                  <table.FlexRender header={h} />
-                </SortHeading>
-              ))}
-            </tr>
-          ))}
-        </thead>
+        <SortingHead groups={table.getHeaderGroups()} buttonClassName="inline-flex min-h-8 items-center gap-1 uppercase tracking-wide hover:text-ink"
+          render={(h) => <table.FlexRender header={h} />} />
         <StripedBody table={table} columnCount={columns.length} empty="No diagnoses match these filters." emptyClassName="px-3 py-8 text-center text-ink-soft" />
       </table>
     </div>
