@@ -1,4 +1,4 @@
-import { useEffect, useState, useSyncExternalStore } from 'react';
+import { useEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { listLocalDiagnoses, type LocalDiagnosis } from '../../../lib/offline/db';
@@ -28,21 +28,24 @@ function DiagnosisLink({ d }: { d: DiagnosisSummary }) {
   );
 }
 
-/** Bench home: resume active diagnoses (from this phone and the server), start one, see history. */
-export function BenchHome() {
-  const server = useQuery(benchQueries.diagnoses());
-  const [local, setLocal] = useState<LocalDiagnosis[]>([]);
-  const { aside } = useSyncExternalStore(syncStore.subscribe, syncStore.get);
-  // Re-read when the set-aside list changes: a removed diagnosis leaves the phone.
-  useEffect(() => { void listLocalDiagnoses().then(setLocal); }, [aside]);
-  // A set-aside diagnosis is listed by the sync badge, with its download, not as one to resume.
-  const setAside = new Set(aside.map((a) => a.diagnosisId));
-  const localActive = local.filter((d) => d.status === 'active' && !setAside.has(d.id));
-  const onPhone = new Set(local.map((d) => d.id));
-  const history = (server.data ?? []).filter((d) => !(d.status === 'active' && onPhone.has(d.id)));
-  const elsewhere = history.filter((d) => d.status === 'active');
-  const ended = history.filter((d) => d.status !== 'active');
-  const [shown, setShown] = useState(PAGE);
+/** Diagnoses in progress on this phone, each one tap from its current step. */
+function ResumeList({ diagnoses }: { diagnoses: LocalDiagnosis[] }) {
+  return (
+    <section aria-labelledby="resume" className="space-y-2">
+      <h2 id="resume" className="text-xl font-bold">Resume on this phone</h2>
+      {diagnoses.length === 0 && <p className="text-ink-soft">Nothing in progress on this phone.</p>}
+      {diagnoses.map((d) => (
+        <Link key={d.id} to={`/bench/d/${d.id}`} className="flex min-h-16 items-center justify-between gap-2 rounded-lg border-2 border-signal bg-panel p-3 text-lg font-semibold">
+          <span>{d.vehicleLabel} · {d.procedureTitle}<span className="block text-base font-normal text-ink-soft">{d.rows.length} {d.rows.length === 1 ? 'answer' : 'answers'} · started {new Date(d.startedAt).toLocaleString()}</span></span>
+          <span aria-hidden>›</span>
+        </Link>
+      ))}
+    </section>
+  );
+}
+
+/** My diagnoses in progress on another phone: brought onto this one with what the server holds. */
+function ElsewhereList({ diagnoses }: { diagnoses: DiagnosisSummary[] }) {
   const navigate = useNavigate();
   const [problem, setProblem] = useState<string | null>(null);
   const resume = async (id: string) => {
@@ -53,49 +56,73 @@ export function BenchHome() {
       setProblem('This diagnosis could not be brought onto this phone. Try again with signal.');
     }
   };
+  if (diagnoses.length === 0) return null;
+  return (
+    <section aria-labelledby="elsewhere" className="space-y-2">
+      <h2 id="elsewhere" className="text-xl font-bold">In progress on another phone</h2>
+      {problem && <p role="alert" className="text-stop">{problem}</p>}
+      <ul className="space-y-2">
+        {diagnoses.map((d) => (
+          <li key={d.id} className="space-y-1">
+            <DiagnosisLink d={d} />
+            <button type="button" onClick={() => void resume(d.id)} className="min-h-12 w-full rounded-lg border-2 border-signal bg-panel px-3 text-lg font-semibold">
+              Continue {d.vehicleLabel} on this phone
+            </button>
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
+
+/** Ended diagnoses, newest first, ten at a time. */
+function RecentList({ ended, loaded, failed }: { ended: DiagnosisSummary[]; loaded: boolean; failed: boolean }) {
+  const [shown, setShown] = useState(PAGE);
+  return (
+    <section aria-labelledby="history" className="space-y-2">
+      <h2 id="history" className="text-xl font-bold">My recent diagnoses</h2>
+      {failed && <p className="text-ink-soft">History needs a connection; it will show when the signal is back.</p>}
+      {loaded && ended.length === 0 && <p className="text-ink-soft">None yet.</p>}
+      <ul className="space-y-2">
+        {ended.slice(0, shown).map((d) => <li key={d.id}><DiagnosisLink d={d} /></li>)}
+      </ul>
+      {ended.length > shown && (
+        <button type="button" onClick={() => setShown(shown + PAGE)} className="min-h-12 w-full rounded-lg border border-line bg-panel px-3 text-lg font-semibold">
+          Show {Math.min(PAGE, ended.length - shown)} more ({ended.length - shown} older)
+        </button>
+      )}
+    </section>
+  );
+}
+
+/**
+ * This phone's diagnoses: all of them, and those to resume (in progress and not set aside: the
+ * sync badge lists set-aside ones, with their download).
+ */
+function useDiagnosesOnPhone(): { all: LocalDiagnosis[]; resumable: LocalDiagnosis[] } {
+  const [local, setLocal] = useState<LocalDiagnosis[]>([]);
+  const { aside } = useSyncExternalStore(syncStore.subscribe, syncStore.get);
+  // Re-read when the set-aside list changes: a removed diagnosis leaves the phone.
+  useEffect(() => { void listLocalDiagnoses().then(setLocal); }, [aside]);
+  return useMemo(() => {
+    const setAside = new Set(aside.map((a) => a.diagnosisId));
+    return { all: local, resumable: local.filter((d) => d.status === 'active' && !setAside.has(d.id)) };
+  }, [local, aside]);
+}
+
+/** Bench home: resume active diagnoses (from this phone and the server), start one, see history. */
+export function BenchHome() {
+  const server = useQuery(benchQueries.diagnoses());
+  const local = useDiagnosesOnPhone();
+  const onPhone = new Set(local.all.map((d) => d.id));
+  const history = (server.data ?? []).filter((d) => !(d.status === 'active' && onPhone.has(d.id)));
   return (
     <div className="mx-auto max-w-xl space-y-5 pb-16">
       <PageHeader title="Bench" actions={<SyncBadge />} />
       <LinkButton to="/bench/start" size="lg" className="min-h-16 w-full text-xl">Start a diagnosis</LinkButton>
-      <section aria-labelledby="resume" className="space-y-2">
-        <h2 id="resume" className="text-xl font-bold">Resume on this phone</h2>
-        {localActive.length === 0 && <p className="text-ink-soft">Nothing in progress on this phone.</p>}
-        {localActive.map((d) => (
-          <Link key={d.id} to={`/bench/d/${d.id}`} className="flex min-h-16 items-center justify-between gap-2 rounded-lg border-2 border-signal bg-panel p-3 text-lg font-semibold">
-            <span>{d.vehicleLabel} · {d.procedureTitle}<span className="block text-base font-normal text-ink-soft">{d.rows.length} {d.rows.length === 1 ? 'answer' : 'answers'} · started {new Date(d.startedAt).toLocaleString()}</span></span>
-            <span aria-hidden>›</span>
-          </Link>
-        ))}
-      </section>
-      {elsewhere.length > 0 && (
-        <section aria-labelledby="elsewhere" className="space-y-2">
-          <h2 id="elsewhere" className="text-xl font-bold">In progress on another phone</h2>
-          {problem && <p role="alert" className="text-stop">{problem}</p>}
-          <ul className="space-y-2">
-            {elsewhere.map((d) => (
-              <li key={d.id} className="space-y-1">
-                <DiagnosisLink d={d} />
-                <button type="button" onClick={() => void resume(d.id)} className="min-h-12 w-full rounded-lg border-2 border-signal bg-panel px-3 text-lg font-semibold">
-                  Continue {d.vehicleLabel} on this phone
-                </button>
-              </li>
-            ))}
-          </ul>
-        </section>
-      )}
-      <section aria-labelledby="history" className="space-y-2">
-        <h2 id="history" className="text-xl font-bold">My recent diagnoses</h2>
-        {server.isError && <p className="text-ink-soft">History needs a connection; it will show when the signal is back.</p>}
-        {server.data && ended.length === 0 && <p className="text-ink-soft">None yet.</p>}
-        <ul className="space-y-2">
-          {ended.slice(0, shown).map((d) => <li key={d.id}><DiagnosisLink d={d} /></li>)}
-        </ul>
-        {ended.length > shown && (
-          <button type="button" onClick={() => setShown(shown + PAGE)} className="min-h-12 w-full rounded-lg border border-line bg-panel px-3 text-lg font-semibold">
-            Show {Math.min(PAGE, ended.length - shown)} more ({ended.length - shown} older)
-          </button>
-        )}
-      </section>
+      <ResumeList diagnoses={local.resumable} />
+      <ElsewhereList diagnoses={history.filter((d) => d.status === 'active')} />
+      <RecentList ended={history.filter((d) => d.status !== 'active')} loaded={Boolean(server.data)} failed={server.isError} />
       <LinkButton to="/bench/job-card" variant="secondary" className="min-h-12 w-full">Print a job card</LinkButton>
       <LimitsNotice />
     </div>
