@@ -90,6 +90,18 @@ describe('toFlow and fromFlow', () => {
     expect(obs.kind === 'observation' && obs.answers[0]!.next).toBe(UNCONNECTED);
     expect(toFlow(back).nodes[1]!.data.handles[0]).toEqual({ id: 'answer:yes', label: 'yes', open: true });
   });
+
+  it('a step the draft removed is drawn where it stood in the base version, faded and with nothing to do with it', () => {
+    const base = applyEdit(coilCheck(), { type: 'move-steps', moves: [{ id: 'openCoil', position: { x: 480, y: 520 } }] });
+    const draft = applyEdit(base, { type: 'remove-steps', ids: ['openCoil'] });
+    const removed = diffDocuments(base, draft).removed.map((r) => base.steps.find((s) => s.id === r.id)!);
+    const { nodes, edges } = toFlow(draft, { removed });
+    const ghost = nodes.find((n) => n.data.change === 'removed')!;
+    expect(ghost).toMatchObject({ id: 'removed:openCoil', position: { x: 480, y: 520 }, selectable: false, draggable: false, deletable: false, connectable: false });
+    expect(ghost.data.handles).toEqual([]);
+    expect(nodes).toHaveLength(4); // the three steps left, and the removed one
+    expect(edges.some((e) => e.source === ghost.id || e.target === ghost.id || e.target === 'openCoil')).toBe(false);
+  });
 });
 
 describe('copy and paste', () => {

@@ -195,7 +195,9 @@ test('a lead reviewing version 2 sees what changed since version 1, on the canva
   await signIn(lead, 'lead');
   await apiPost(lead, `${v(created.draftId)}/publish`, {});
   const draft = await apiPost<{ id: string; lockVersion: number; document: typeof source }>(page, `/api/procedures/${created.procedureId}/drafts`, {});
-  const changed = { ...draft.document, steps: draft.document.steps.map((s, i) => (i === 1 ? { ...s, title: `${s.title} (checked twice)` } : s)) };
+  // Version 2 renames the second step and drops the last one (its branch in is left open).
+  const removedId = source.steps.at(-1)!.id;
+  const changed = { ...draft.document, steps: draft.document.steps.filter((s) => s.id !== removedId).map((s, i) => (i === 1 ? { ...s, title: `${s.title} (checked twice)` } : s)) };
   await apiPut(page, v(draft.id), { document: changed, lockVersion: draft.lockVersion });
   await apiPost(page, `${v(draft.id)}/submit`, {});
 
@@ -204,7 +206,12 @@ test('a lead reviewing version 2 sees what changed since version 1, on the canva
   await expect(lead.getByTestId('diff-list')).toContainText('Changes since version 1');
   await expect(lead.getByTestId('diff-list')).toContainText(`changed (title)${changedId}`);
   await expect(node(lead, changedId)).toContainText('changed');
+  await expect(lead.getByTestId('diff-list')).toContainText(`removed${removedId}`);
+  await expect(node(lead, `removed:${removedId}`)).toContainText('removed'); // drawn, faded, where it stood in version 1
   await shot(lead, 'drafting-review-diff');
+  await lead.getByTestId('diff-list').getByRole('button', { name: new RegExp(`^removed${removedId}`) }).click();
+  await expect(node(lead, `removed:${removedId}`)).toBeInViewport();
+  await shot(lead, 'drafting-review-removed');
   // the lead opens version 1 from the version picker; it is read only and can be retired
   await lead.getByTestId('version-picker').selectOption({ label: 'Version 1' });
   await expect(lead.getByText('Published', { exact: true })).toBeVisible();

@@ -2,7 +2,7 @@ import type { Edge, FitViewOptions, Node } from '@xyflow/react';
 import { branchesOf, type ProcedureDocument, type Step } from '@shared/schema';
 import { setBranch } from './edits';
 
-export type ChangeMark = 'added' | 'changed' | null;
+export type ChangeMark = 'added' | 'changed' | 'removed' | null;
 
 /** Everything a step node draws; plain data only (no callbacks), so it can be copied and compared. */
 export interface StepNodeData extends Record<string, unknown> {
@@ -23,7 +23,21 @@ export interface FlowMarks {
   path?: ReadonlySet<string>;
   current?: string | null;
   changes?: ReadonlyMap<string, ChangeMark>;
+  /** Steps of the base version this document no longer has: drawn faded where they stood. */
+  removed?: readonly Step[];
   selected?: ReadonlySet<string>;
+}
+
+/** Node ids of removed steps; they never collide with a step's id, which the document keeps unique. */
+export const REMOVED_PREFIX = 'removed:';
+
+/** A removed step for a reviewer to see where it stood: behind the others, and nothing to do with it. */
+function removedNode(step: Step): StepNode {
+  return {
+    id: `${REMOVED_PREFIX}${step.id}`, type: 'step', position: step.position, zIndex: -1,
+    selectable: false, draggable: false, deletable: false, connectable: false, focusable: false,
+    data: { step, isStart: false, issue: null, onPath: false, current: false, change: 'removed', handles: [] },
+  };
 }
 
 /** The handles a step offers, open ones (not yet connected) included. */
@@ -79,6 +93,7 @@ export function toFlow(doc: ProcedureDocument, marks: FlowMarks = {}): { nodes: 
       });
     }
   }
+  for (const step of marks.removed ?? []) nodes.push(removedNode(step));
   return { nodes, edges };
 }
 

@@ -7,11 +7,11 @@ import { draftingKeys, draftingQueries } from '../../api/queries';
 import { addComment, type VersionIds } from '../../api/versions';
 import type { DocumentDiff } from '../../lib/diff';
 
-function DiffList({ diff, baseNumber, onPick }: { diff: DocumentDiff; baseNumber: number; onPick: (id: string) => void }) {
+function DiffList({ diff, baseNumber, onPick, onShowRemoved }: { diff: DocumentDiff; baseNumber: number; onPick: (id: string) => void; onShowRemoved: (id: string) => void }) {
   const empty = diff.added.length + diff.removed.length + diff.changed.length + diff.meta.length === 0;
-  const item = (id: string, text: string, tone: string) => (
-    <li key={`${tone}-${id}`}><button type="button" className="w-full rounded px-1 text-left hover:bg-ink/5" onClick={() => onPick(id)}>
-      <span className={`mr-1 font-bold ${tone}`}>{text}</span><code>{id}</code></button></li>
+  const item = (id: string, text: string, tone: string, go = onPick, title?: string) => (
+    <li key={`${tone}-${id}`}><button type="button" className="w-full rounded px-1 text-left hover:bg-ink/5" onClick={() => go(id)}>
+      <span className={`mr-1 font-bold ${tone}`}>{text}</span><code>{id}</code>{title && ` ${title}`}</button></li>
   );
   return (
     <div data-testid="diff-list">
@@ -19,7 +19,7 @@ function DiffList({ diff, baseNumber, onPick }: { diff: DocumentDiff; baseNumber
       {empty && <p className="text-sm text-ink-soft">No changes.</p>}
       <ul className="text-sm">
         {diff.added.map((s) => item(s.id, 'added', 'text-go'))}
-        {diff.removed.map((s) => <li key={`r-${s.id}`} className="px-1"><span className="mr-1 font-bold text-stop">removed</span><code>{s.id}</code> {s.title}</li>)}
+        {diff.removed.map((s) => item(s.id, 'removed', 'text-stop', onShowRemoved, s.title))}
         {diff.changed.map((s) => item(s.id, `changed (${s.fields.join(', ')})`, 'text-signal'))}
         {diff.meta.length > 0 && <li className="px-1"><span className="mr-1 font-bold text-signal">procedure</span>{diff.meta.join(', ')}</li>}
       </ul>
@@ -28,8 +28,10 @@ function DiffList({ diff, baseNumber, onPick }: { diff: DocumentDiff; baseNumber
 }
 
 /** Review: what changed against the last published version, and the comments on this version. */
-export function ReviewPanel({ ids, diff, baseNumber, selectedStep, canComment, onPick }: {
+export function ReviewPanel({ ids, diff, baseNumber, selectedStep, canComment, onPick, onShowRemoved }: {
   ids: VersionIds; diff: DocumentDiff | null; baseNumber: number | null; selectedStep: string | null; canComment: boolean; onPick: (id: string) => void;
+  /** Brings a removed step into view on the canvas (it cannot be selected: it is not in the draft). */
+  onShowRemoved: (id: string) => void;
 }) {
   const qc = useQueryClient();
   const comments = useQuery({ ...draftingQueries.comments(ids.procedureId, ids.versionId), enabled: canComment });
@@ -41,7 +43,7 @@ export function ReviewPanel({ ids, diff, baseNumber, selectedStep, canComment, o
   return (
     <section aria-labelledby="review-title" className="flex flex-col gap-3">
       <h2 id="review-title" className="text-sm font-bold uppercase tracking-wide text-ink-soft">Review</h2>
-      {diff && baseNumber !== null ? <DiffList diff={diff} baseNumber={baseNumber} onPick={onPick} /> : <p className="text-sm text-ink-soft">Not published before: every step is new.</p>}
+      {diff && baseNumber !== null ? <DiffList diff={diff} baseNumber={baseNumber} onPick={onPick} onShowRemoved={onShowRemoved} /> : <p className="text-sm text-ink-soft">Not published before: every step is new.</p>}
       {canComment && (
         <>
           <ul className="flex flex-col gap-2" data-testid="comments">

@@ -14,16 +14,17 @@ export const StepNodeView = memo(function StepNodeView({ data, selected }: NodeP
   const { step, handles, isStart, issue, onPath, current, change } = data;
   const decision = OUTLINE[step.kind] === 'decision';
   const tone = KIND_TONE[step.kind];
+  const removed = change === 'removed';
   return (
     <div
       style={{ width: nodeWidth(handles.length) }}
-      className={cx('rounded-md', selected && 'ring-4 ring-signal/70', current && 'ring-4 ring-ink', onPath && !current && !selected && 'ring-4 ring-go/50')}
+      className={cx('rounded-md', removed && 'opacity-45 grayscale', selected && 'ring-4 ring-signal/70', current && 'ring-4 ring-ink', onPath && !current && !selected && 'ring-4 ring-go/50')}
       data-step-id={step.id}
       data-testid={`step-${step.id}`}
     >
-      <Handle type="target" id="in" position={Position.Top} className="!h-3 !w-3 !border-2 !border-ink !bg-panel" />
+      {!removed && <Handle type="target" id="in" position={Position.Top} className="!h-3 !w-3 !border-2 !border-ink !bg-panel" />}
       <div className={cx('relative flex flex-col items-center justify-center text-center', decision ? 'h-[112px] px-12' : 'h-[76px] px-4')}>
-        <OutlineShape kind={step.kind} strokeWidth={issue ? 3 : 2} dashed={change === 'added'} />
+        <OutlineShape kind={step.kind} strokeWidth={issue ? 3 : 2} dashed={change === 'added' || removed} />
         <div className={cx('relative flex items-center gap-1 text-xs font-bold uppercase tracking-wide', tone.text)}>
           <StepGlyph kind={step.kind} className="h-4 w-4" />{KIND_LABELS[step.kind]}
         </div>
@@ -33,7 +34,7 @@ export const StepNodeView = memo(function StepNodeView({ data, selected }: NodeP
       <div className="pointer-events-none absolute -top-3 left-1 flex gap-1">
         {isStart && <span className="rounded bg-ink px-1.5 text-[11px] font-bold uppercase text-white">Start</span>}
         {issue && <span className={cx('rounded px-1.5 text-[11px] font-bold uppercase', issue === 'error' ? 'bg-stop text-white' : 'bg-caution text-ink')}>{issue}</span>}
-        {change && <span className="rounded bg-signal px-1.5 text-[11px] font-bold uppercase text-white">{change}</span>}
+        {change && <span className={cx('rounded px-1.5 text-[11px] font-bold uppercase text-white', removed ? 'bg-stop' : 'bg-signal')}>{change}</span>}
       </div>
       {handles.length > 0 && (
         <div className="mt-1 flex justify-center gap-1">

@@ -1,9 +1,8 @@
 import { useCallback, useEffect, useMemo, useReducer, useState, type Dispatch, type SetStateAction } from 'react';
 import { useReactFlow, type ReactFlowInstance, type Viewport } from '@xyflow/react';
-import { lintProcedure, pathFigures, type LintFinding, type LintReport, type PathFigures } from '@shared/engine';
+import { lintProcedure, pathFigures, type LintReport } from '@shared/engine';
 import type { ProcedureDocument, StepKind } from '@shared/schema';
 import { Alert } from '../../../../components/ui/card';
-import { cx } from '../../../../components/ui/cx';
 import { historyReducer, initialHistory, type Edit, type History, type HistoryAction } from '../../lib/edits';
 import { stepFor } from '../../lib/new-step';
 import { copySteps, pasteSteps } from '../../lib/clipboard';
@@ -15,19 +14,14 @@ import { useDraftSaving, type SaveState } from '../../hooks/use-draft-saving';
 import { useEditorKeys } from '../../hooks/use-editor-keys';
 import type { VersionDetail, VersionSummary } from '../../api/types';
 import type { VersionIds } from '../../api/versions';
-import { Inspector } from '../inspector/inspector';
 import { StatusBadge } from '../labels';
 import { Canvas } from './canvas';
 import { Palette } from './palette';
-import { SoundnessPanel } from './soundness-panel';
-import { FiguresPanel } from './figures-panel';
-import { PreviewPanel } from './preview-panel';
-import { ReviewPanel } from './review-panel';
 import { Counts, SaveStatus, ToolButton } from './toolbar';
 import { ConflictNotice, VersionActions } from './version-actions';
 import { VersionPicker } from './version-picker';
+import { SidePanel, type Tab } from './side-panel';
 
-type Tab = 'step' | 'check' | 'review';
 interface Walk { path: string[]; current: string | null }
 
 const UNCHECKED: LintReport = { findings: [], errorCount: 0, warningCount: 0, ok: true };
@@ -46,7 +40,7 @@ type FitView = ReactFlowInstance['fitView'];
 type Commands = ReturnType<typeof useCommands>;
 
 /** Soundness findings, review changes and the preview walk, as the canvas shows them. */
-function flowMarks(report: LintReport, changed: DocumentDiff | null, walk: Walk | null): FlowMarks {
+function flowMarks(report: LintReport, changed: DocumentDiff | null, walk: Walk | null, base: ProcedureDocument | null): FlowMarks {
   const issues = new Map<string, 'error' | 'warning'>();
   for (const f of report.findings) for (const id of f.steps) if (issues.get(id) !== 'error') issues.set(id, f.severity);
   const changes = new Map<string, ChangeMark>();
@@ -54,7 +48,9 @@ function flowMarks(report: LintReport, changed: DocumentDiff | null, walk: Walk 
     for (const s of changed.added) changes.set(s.id, 'added');
     for (const s of changed.changed) changes.set(s.id, 'changed');
   }
-  return { issues, changes, ...(walk ? { path: new Set(walk.path), current: walk.current } : {}) };
+  const gone = new Set(changed?.removed.map((s) => s.id));
+  const removed = base && gone.size > 0 ? base.steps.filter((s) => gone.has(s.id)) : [];
+  return { issues, changes, removed, ...(walk ? { path: new Set(walk.path), current: walk.current } : {}) };
 }
 
 /** Where a step added from the palette goes: a grid from the top left of the view, so steps added one after another do not hide each other. */
@@ -96,11 +92,12 @@ function useEditing({ editable, dispatch, selected, setSelected, setTab, fitView
     setSelected((prev) => (prev.length === ids.length && prev.every((id, i) => id === ids[i]) ? prev : ids));
     if (ids.length === 1) setTab((t) => (t === 'review' ? t : 'step'));
   }, [setSelected, setTab]);
-  const pick = useCallback((ids: string[]) => {
-    select(ids);
-    if (ids.length > 0) void fitView({ nodes: ids.map((id) => ({ id })), duration: 300, maxZoom: 1.2, padding: 0.4 });
-  }, [fitView, select]);
-  return { selectRequest, onEdit, onSelect, pick };
+  // Brings canvas nodes into view; `pick` also selects them (a removed step can only be shown).
+  const show = useCallback((nodeIds: string[]) => {
+    if (nodeIds.length > 0) void fitView({ nodes: nodeIds.map((id) => ({ id })), duration: 300, maxZoom: 1.2, padding: 0.4 });
+  }, [fitView]);
+  const pick = useCallback((ids: string[]) => { select(ids); show(ids); }, [select, show]);
+  return { selectRequest, onEdit, onSelect, pick, show };
 }
 
 interface CommandOptions {
@@ -155,8 +152,8 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, versions, o
   const { checked, report, figures } = useSoundness(doc);
   const diff = useMemo(() => (base ? diffDocuments(base.document, doc) : null), [base, doc]);
   const showChanges = tab === 'review' || version.status === 'in_review';
-  const marks = useMemo(() => flowMarks(report, showChanges ? diff : null, preview ? walk : null), [report, diff, showChanges, preview, walk]);
-  const { selectRequest, onEdit, onSelect, pick } = useEditing({ editable, dispatch, selected, setSelected, setTab, fitView: flow.fitView });
+  const marks = useMemo(() => flowMarks(report, showChanges ? diff : null, preview ? walk : null, base?.document ?? null), [report, diff, showChanges, preview, walk, base]);
+  const { selectRequest, onEdit, onSelect, pick, show } = useEditing({ editable, dispatch, selected, setSelected, setTab, fitView: flow.fitView });
   const onPath = useCallback((path: string[], current: string | null) => setWalk({ path, current }), []);
   const commands = useCommands({ doc, editable, selected, dispatch, onEdit, setPreview, flow });
   return (
@@ -172,7 +169,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, versions, o
         </div>
         <SidePanel ids={ids} doc={doc} diff={diff} baseNumber={base?.number ?? null} report={report} figures={figures} checked={checked}
           selected={selected} tab={tab} onTab={setTab} readOnly={!editable} canComment={roles.includes('author') || roles.includes('lead')}
-          preview={preview} onEdit={onEdit} onPick={pick} onPath={onPath} onClosePreview={() => setPreview(false)} />
+          preview={preview} onEdit={onEdit} onPick={pick} onShow={show} onPath={onPath} onClosePreview={() => setPreview(false)} />
       </div>
     </div>
   );
@@ -247,50 +244,5 @@ function SaveProblems({ state, doc, onReload }: { state: SaveState; doc: Procedu
       {state.kind === 'invalid' && <Alert title="Not saved yet: fix these fields">{state.problems.map((p) => <p key={p}><code>{p}</code></p>)}</Alert>}
       {state.kind === 'failed' && <Alert title="Saving failed">{state.message}</Alert>}
     </>
-  );
-}
-
-interface SidePanelProps {
-  ids: VersionIds;
-  doc: ProcedureDocument;
-  diff: DocumentDiff | null;
-  baseNumber: number | null;
-  report: LintReport;
-  figures: PathFigures | null;
-  checked: boolean;
-  selected: string[];
-  tab: Tab;
-  onTab: (tab: Tab) => void;
-  readOnly: boolean;
-  canComment: boolean;
-  preview: boolean;
-  onEdit: (e: Edit) => void;
-  onPick: (ids: string[]) => void;
-  onPath: (path: string[], current: string | null) => void;
-  onClosePreview: () => void;
-}
-
-/** The technician preview, or the tabs: the selected step, the soundness check, the review. */
-function SidePanel({ ids, doc, diff, baseNumber, report, figures, checked, selected, tab, onTab, readOnly, canComment, preview, onEdit, onPick, onPath, onClosePreview }: SidePanelProps) {
-  const selectedStep = selected.length === 1 ? doc.steps.find((s) => s.id === selected[0]) : undefined;
-  const tabs: [Tab, string][] = [['step', 'Step'], ['check', `Soundness (${report.errorCount})`], ['review', 'Review']];
-  return (
-    <aside className={cx('flex shrink-0 flex-col gap-3 overflow-y-auto rounded-[var(--radius-card)] border border-line bg-panel p-3', preview ? 'w-[420px]' : 'w-[380px]')}>
-      {preview ? <PreviewPanel doc={doc} onPath={onPath} onClose={onClosePreview} /> : (
-        <>
-          <div role="tablist" aria-label="Side panel" className="flex gap-1">
-            {tabs.map(([t, label]) => (
-              <button key={t} role="tab" type="button" aria-selected={tab === t} onClick={() => onTab(t)}
-                className={cx('min-h-10 flex-1 rounded-md px-2 text-sm font-semibold', tab === t ? 'bg-ink text-white' : 'bg-paper text-ink hover:bg-ink/10')}>{label}</button>
-            ))}
-          </div>
-          {tab === 'step' && (selectedStep
-            ? <Inspector step={selectedStep} doc={doc} readOnly={readOnly} onEdit={onEdit} />
-            : <p className="text-ink-soft">{selected.length > 1 ? `${selected.length} steps selected: copy, delete or move them together.` : 'Select a step to edit it.'}</p>)}
-          {tab === 'check' && checked && <><SoundnessPanel report={report} onPick={(f: LintFinding) => onPick([...f.steps].filter((id) => doc.steps.some((s) => s.id === id)))} /><FiguresPanel figures={figures} /></>}
-          {tab === 'review' && <ReviewPanel ids={ids} diff={diff} baseNumber={baseNumber} selectedStep={selected[0] ?? null} canComment={canComment} onPick={(id) => onPick([id])} />}
-        </>
-      )}
-    </aside>
   );
 }
