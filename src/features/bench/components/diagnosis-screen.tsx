@@ -7,6 +7,7 @@ import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { PathStep } from '@shared/engine/walk';
 import { Alert, Spinner } from '../../../components/ui/card';
 import { LinkButton } from '../../../components/ui/button';
+import type { LocalPhoto } from '../../../lib/offline/db';
 import { useLocalDiagnosis } from '../hooks/use-local-diagnosis';
 import { StepCard } from './step-card';
 import { EndingForm } from './ending-form';
@@ -69,6 +70,30 @@ function ComputedCard({ doc, path }: { doc: ProcedureDocument; path: readonly Pa
   );
 }
 
+/** The note and photos of a step, folded away until used (a gloved thumb opens it on purpose). */
+function NoteAndPhotos({ note, setNote, photos, onAdd }: { note: string; setNote: (note: string) => void; photos: LocalPhoto[]; onAdd: (file: File) => Promise<void> }) {
+  return (
+    <details className="rounded-lg border-2 border-ink/30 bg-panel" open={note !== '' || photos.length > 0}>
+      <summary className="flex min-h-12 cursor-pointer items-center gap-2 px-3 text-lg font-bold"><span aria-hidden className="text-2xl leading-none text-signal">+</span>Add a note or photo{photos.length ? ` (${photos.length} photo${photos.length > 1 ? 's' : ''})` : ''}</summary>
+      <div className="space-y-3 p-3 pt-0">
+        <label className="block text-lg font-bold">Note
+          <textarea className="mt-1 w-full rounded-lg border-2 border-ink/40 bg-panel p-2 text-lg font-normal" rows={2} value={note} onChange={(e) => setNote(e.target.value)} />
+        </label>
+        <PhotoField photos={photos} onAdd={onAdd} />
+      </div>
+    </details>
+  );
+}
+
+function EndedNotice({ id, finished }: { id: string; finished: boolean }) {
+  return (
+    <Alert tone="go" title={finished ? 'Diagnosis finished' : 'Handed off'}>
+      <p>Everything is kept on this phone until it has synced.</p>
+      <LinkButton to={`/bench/d/${id}/record`} size="lg" className="mt-3 w-full">Open the record and report</LinkButton>
+    </Alert>
+  );
+}
+
 /** The Bench step screen: one step at a time, walked on the phone, synced through the outbox. */
 export function DiagnosisScreen() {
   const { id = '' } = useParams();
@@ -102,17 +127,7 @@ export function DiagnosisScreen() {
       {currentView && currentStep && (
         <StepCard key={stepKey} view={currentView} step={currentStep} values={state.values} remeasure={!editPath && state.remeasure}
           remeasured={editPath ? 0 : remeasuredAt(state.path, currentView.id)}
-          extras={(note, setNote) => (
-            <details className="rounded-lg border-2 border-ink/30 bg-panel" open={note !== '' || photosHere.length > 0}>
-              <summary className="flex min-h-12 cursor-pointer items-center gap-2 px-3 text-lg font-bold"><span aria-hidden className="text-2xl leading-none text-signal">+</span>Add a note or photo{photosHere.length ? ` (${photosHere.length} photo${photosHere.length > 1 ? 's' : ''})` : ''}</summary>
-              <div className="space-y-3 p-3 pt-0">
-                <label className="block text-lg font-bold">Note
-                  <textarea className="mt-1 w-full rounded-lg border-2 border-ink/40 bg-panel p-2 text-lg font-normal" rows={2} value={note} onChange={(e) => setNote(e.target.value)} />
-                </label>
-                <PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, currentView.id)} />
-              </div>
-            </details>
-          )}
+          extras={(note, setNote) => <NoteAndPhotos note={note} setNote={setNote} photos={photosHere} onAdd={(f) => d.addPhoto(f, currentView.id)} />}
           onAnswer={async (a) => { await d.answer({ ...a, startedAt }, editing ?? undefined); setEditing(null); }} />
       )}
 
@@ -120,12 +135,7 @@ export function DiagnosisScreen() {
         <EndingForm view={state.ending} onFinish={(outcome, note) => d.finish(state.ending!.id, outcome, note, startedAt)}
           photos={<PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, state.ending!.id)} />} />
       )}
-      {d.diagnosis.status !== 'active' && (
-        <Alert tone="go" title={d.diagnosis.status === 'finished' ? 'Diagnosis finished' : 'Handed off'}>
-          <p>Everything is kept on this phone until it has synced.</p>
-          <LinkButton to={`/bench/d/${id}/record`} size="lg" className="mt-3 w-full">Open the record and report</LinkButton>
-        </Alert>
-      )}
+      {d.diagnosis.status !== 'active' && <EndedNotice id={id} finished={d.diagnosis.status === 'finished'} />}
       {state.status === 'stuck' && <Alert title="The procedure cannot go on from here">{state.problem?.message}</Alert>}
 
       <PathList doc={doc} path={state.path} onChange={(i) => { setEditing(i); window.scrollTo(0, 0); }} />

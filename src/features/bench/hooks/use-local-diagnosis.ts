@@ -19,13 +19,12 @@ export interface LocalDiagnosisApi {
   addPhoto(file: File, stepId: string | null): Promise<void>;
 }
 
-/** A diagnosis read from and written to the phone; the outbox carries each change to the server. */
-export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
+/** Reads the diagnosis and its procedure version from the phone (no network). */
+function useStoredDiagnosis(id: string) {
   const [diagnosis, setDiagnosis] = useState<LocalDiagnosis | null>(null);
   const [doc, setDoc] = useState<ProcedureDocument | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [loading, setLoading] = useState(true);
-
   useEffect(() => {
     let live = true;
     (async () => {
@@ -39,28 +38,36 @@ export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
     })().catch((e: unknown) => live && setError(e instanceof Error ? e.message : String(e))).finally(() => live && setLoading(false));
     return () => { live = false; };
   }, [id]);
+  return { diagnosis, setDiagnosis, doc, error, loading };
+}
 
+/** The row an answer becomes: a fresh client id, linked after the step it follows on the path. */
+function answerRow(a: Answer, path: Walked['path'], at: number, now: string): LocalRow {
+  return {
+    id: crypto.randomUUID(), stepId: a.stepId, after: afterFor(path, at), note: a.note, startedAt: a.startedAt, answeredAt: now,
+    ...(a.entered !== undefined ? { entered: a.entered } : {}), ...(a.leadEntered ? { leadEntered: a.leadEntered } : {}),
+    ...(a.answerId !== undefined ? { answerId: a.answerId } : {}), ...(a.acknowledged ? { acknowledged: true } : {}),
+  };
+}
+
+/** A diagnosis read from and written to the phone; the outbox carries each change to the server. */
+export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
+  const { diagnosis, setDiagnosis, doc, error, loading } = useStoredDiagnosis(id);
   const walked = useMemo(() => (doc && diagnosis ? walkRows(doc, diagnosis.rows) : null), [doc, diagnosis]);
 
   const save = useCallback(async (next: LocalDiagnosis, messages: OutboxMessage[]) => {
     await commitLocal(next, messages);
     setDiagnosis(next);
     void flushOutbox();
-  }, []);
+  }, [setDiagnosis]);
 
   const answer = useCallback(async (a: Answer, index?: number) => {
     if (!doc || !diagnosis || !walked) return;
     const now = new Date().toISOString();
-    const at = index ?? walked.path.length;
-    const row: LocalRow = {
-      id: crypto.randomUUID(), stepId: a.stepId, after: afterFor(walked.path, at), note: a.note, startedAt: a.startedAt, answeredAt: now,
-      ...(a.entered !== undefined ? { entered: a.entered } : {}), ...(a.leadEntered ? { leadEntered: a.leadEntered } : {}),
-      ...(a.answerId !== undefined ? { answerId: a.answerId } : {}), ...(a.acknowledged ? { acknowledged: true } : {}),
-    };
+    const row = answerRow(a, walked.path, index ?? walked.path.length, now);
     const rows = [...diagnosis.rows, row];
     const computed = formulaRows(doc, rows, now);
-    const all = [...rows, ...computed];
-    await save({ ...diagnosis, rows: all }, [row, ...computed].map((body) => ({ kind: 'step', body })));
+    await save({ ...diagnosis, rows: [...rows, ...computed] }, [row, ...computed].map((body) => ({ kind: 'step', body })));
   }, [doc, diagnosis, walked, save]);
 
   const finish = useCallback(async (stepId: string, outcome: Record<string, unknown>, note: string, startedAt: string) => {
