@@ -18,12 +18,13 @@ export const StepNodeView = memo(function StepNodeView({ data, selected }: NodeP
   return (
     <div
       style={{ width: nodeWidth(handles.length) }}
-      className={cx('rounded-md', removed && 'opacity-45 grayscale', selected && 'ring-4 ring-signal/70', current && 'ring-4 ring-ink', onPath && !current && !selected && 'ring-4 ring-go/50')}
+      className={cx('rounded-md', selected && 'ring-4 ring-signal/70', current && 'ring-4 ring-ink', onPath && !current && !selected && 'ring-4 ring-go/50')}
       data-step-id={step.id}
       data-testid={`step-${step.id}`}
     >
       {!removed && <Handle type="target" id="in" position={Position.Top} className="!h-3 !w-3 !border-2 !border-ink !bg-panel" />}
-      <div className={cx('relative flex flex-col items-center justify-center text-center', decision ? 'h-[112px] px-12' : 'h-[76px] px-4')}>
+      {/* a removed step is faded; its red badge is not */}
+      <div className={cx('relative flex flex-col items-center justify-center text-center', decision ? 'h-[112px] px-12' : 'h-[76px] px-4', removed && 'opacity-45 grayscale')}>
         <OutlineShape kind={step.kind} strokeWidth={issue ? 3 : 2} dashed={change === 'added' || removed} />
         <div className={cx('relative flex items-center gap-1 text-xs font-bold uppercase tracking-wide', tone.text)}>
           <StepGlyph kind={step.kind} className="h-4 w-4" />{KIND_LABELS[step.kind]}
