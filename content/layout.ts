@@ -14,17 +14,16 @@ const COLUMN_GAP = 50;
 export function layoutTopDown(doc: ProcedureDocument): ProcedureDocument {
   const g = buildGraph(doc);
   const dfs = depthFirst(g, g.start);
-  const depth = new Map<string, number>();
-  for (const v of dfs.order) depth.set(g.steps[v]!.id, 0);
+  const depth = new Int32Array(g.size);
   for (const v of dfs.order) {
     for (let e = g.outStart[v]!; e < g.outStart[v + 1]!; e++) {
       const w = g.targets[e]!;
-      if (!isBackEdge(dfs, v, w)) depth.set(g.steps[w]!.id, Math.max(depth.get(g.steps[w]!.id)!, depth.get(g.steps[v]!.id)! + 1));
+      if (!isBackEdge(dfs, v, w)) depth[w] = Math.max(depth[w]!, depth[v]! + 1);
     }
   }
   const byId = new Map(doc.steps.map((s) => [s.id, s]));
   const rows: Step[][] = [];
-  for (const v of dfs.order) (rows[depth.get(g.steps[v]!.id)!] ??= []).push(g.steps[v]!);
+  for (const v of dfs.order) (rows[depth[v]!] ??= []).push(g.steps[v]!);
 
   const centre = new Map<string, number>();
   const top = new Map<string, number>();

@@ -111,8 +111,10 @@ export function decideStep(
   const walk = prior ? prior.fork() : replay(doc, steps, keep);
   const at = keep.length;
   const entry = entryOf(step, { ...answer, lead: answer.leadEntered });
-  // An answer is for the step the walk stands at; going back is said with `after`, not here.
-  if (entry && !(walk.status === 'in-progress' && walk.current?.id !== answer.stepId)) {
+  // An answer is for the step the walk stands at; going back is said with `after`, not here. An
+  // answer for another step is not taken: the path check below names the step that comes next.
+  const forAnotherStep = walk.status === 'in-progress' && walk.current?.id !== answer.stepId;
+  if (entry && !forAnotherStep) {
     const taken = walk.take(entry);
     if (taken.status === 'rejected' && taken.problem) throw refusal(taken.problem);
   }

@@ -46,14 +46,13 @@ const HEAD_SQL = `
   FROM diagnoses d LEFT JOIN meters m ON m.id = d.meter_id
   WHERE d.id = $1::uuid AND d.shop_id = $2::uuid`;
 
-// Supersedes the abandoned tail of the path, stores the step once and, when the step ends the
-// diagnosis or its last activity is a minute old, updates the diagnosis, in one statement (so one
-// transaction); nothing is written once the diagnosis has ended. Last activity to the minute is
-// plenty for the abandon sweep (hours) and the lists, and spares a row version per step.
 /**
- * The write, in two shapes: going back supersedes the tail of the path from seq $22 first;
- * answering the step the path stands at (nearly every request) has no such part, so PostgreSQL
- * keeps one generic plan for it instead of planning each execution.
+ * Stores the step once and, when the step ends the diagnosis or its last activity is a minute
+ * old, updates the diagnosis, in one statement (so one transaction); nothing is written once the
+ * diagnosis has ended. Last activity to the minute is plenty for the abandon sweep (hours) and the
+ * lists, and spares a row version per step. Two shapes: going back first supersedes the tail of
+ * the path from seq $22; answering the step the path stands at (nearly every request) has no such
+ * part, so PostgreSQL keeps one generic plan for it instead of planning each execution.
  */
 function writeSql(goingBack: boolean): string {
   return `

@@ -11,7 +11,7 @@ export function nodeWidth(handles: number): number {
   return Math.max(240, handles * HANDLE_PITCH + 8);
 }
 
-export function nodeSize(kind: string, handles: number): { width: number; height: number } {
+function nodeSize(kind: string, handles: number): { width: number; height: number } {
   return { width: nodeWidth(handles), height: kind === 'reading' || kind === 'observation' ? 150 : kind === 'task' || kind === 'formula' ? 110 : 80 };
 }
 

@@ -1,6 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import { test, expect, type BrowserContext, type Page } from '@playwright/test';
-import { signIn, shot, axe } from './helpers';
+import { signIn, shot, axe, keptSlugs } from './helpers';
 
 // A technician's phone: narrow, touch. The demo "No spark" procedure is seeded as version 1.
 test.use({ viewport: { width: 360, height: 780 }, hasTouch: true });
@@ -24,15 +24,6 @@ async function startOffline(page: Page, machine: string): Promise<string> {
   await expect(page.getByRole('heading', { name: 'Spark test' })).toBeVisible();
   return page.url().split('/').pop()!;
 }
-
-/** How many procedure versions this phone keeps in IndexedDB. */
-const keptVersions = (page: Page) => page.evaluate(() => new Promise<number>((resolve) => {
-  const open = indexedDB.open('sparkwright-bench');
-  open.onsuccess = () => {
-    const count = open.result.transaction('versions').objectStore('versions').count();
-    count.onsuccess = () => { open.result.close(); resolve(count.result); };
-  };
-}));
 
 /**
  * The machine of a queued start is swapped for one the shop does not have, as if it had been
@@ -60,7 +51,8 @@ test('a refused diagnosis waits on the phone while another syncs, and can be set
   await page.goto('/bench');
   await page.getByRole('link', { name: 'Start a diagnosis' }).click();
   await expect(page.getByRole('radio', { name: /^No spark/ })).toBeVisible();
-  await expect.poll(() => keptVersions(page), { timeout: 20_000 }).toBeGreaterThanOrEqual(1); // "No spark" kept on the phone
+  await expect.poll(async () => (await keptSlugs(page)).length, { timeout: 20_000 }).toBeGreaterThanOrEqual(1);
+  await expect.poll(() => keptSlugs(page), { timeout: 20_000 }).toContain('no-spark'); // "No spark" kept on the phone
   const benchNav = page.getByRole('navigation', { name: 'Areas' }).getByRole('link', { name: 'Bench' });
   await benchNav.click(); // moving inside the app from here on: without signal there is no reload
 

@@ -2,7 +2,7 @@ import { PNG } from 'pngjs';
 import jsQR from 'jsqr';
 import { test, expect, type Browser, type Page, type BrowserContext } from '@playwright/test';
 import { deflateSync } from 'node:zlib';
-import { signIn, shot, axe, DEMO_PASSWORD } from './helpers';
+import { signIn, shot, axe, keptSlugs, DEMO_PASSWORD } from './helpers';
 
 // A technician's phone: narrow, touch. The demo "No spark" procedure is seeded as version 1.
 test.use({ viewport: { width: 360, height: 780 }, hasTouch: true });
@@ -207,24 +207,14 @@ test('a diagnosis started on one phone can be continued on another', async ({ pa
   await other.close();
 });
 
-/** How many procedure versions this phone keeps in IndexedDB. */
-const keptVersions = (page: Page) => page.evaluate(() => new Promise<number>((resolve) => {
-  const open = indexedDB.open('sparkwright-bench');
-  open.onsuccess = () => {
-    const db = open.result;
-    if (!db.objectStoreNames.contains('versions')) { db.close(); resolve(0); return; }
-    const count = db.transaction('versions').objectStore('versions').count();
-    count.onsuccess = () => { db.close(); resolve(count.result); };
-  };
-}));
-
 test('without signal a diagnosis still starts from what the phone kept, and reaches the server when signal returns', async ({ page, context }) => {
   test.setTimeout(120_000);
   await signIn(page, 'tech');
   await serviceWorkerReady(page);
   await page.getByRole('link', { name: 'Start a diagnosis' }).click();
   await expect(page.getByRole('radio', { name: /^No spark/ })).toBeVisible();
-  await expect.poll(() => keptVersions(page), { timeout: 20_000 }).toBeGreaterThanOrEqual(3); // the demo's three procedures
+  await expect.poll(async () => (await keptSlugs(page)).length, { timeout: 20_000 }).toBeGreaterThanOrEqual(3); // the demo's three procedures
+  await expect.poll(() => keptSlugs(page), { timeout: 20_000 }).toEqual(expect.arrayContaining(['no-spark', 'weak-spark', 'will-not-stop']));
 
   await goOffline(context, page);
   await page.reload();

@@ -28,3 +28,17 @@ export async function axe(page: Page): Promise<void> {
   const bad = result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
   expect(bad.map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).slice(0, 3).join(', ')})`)).toEqual([]);
 }
+
+/**
+ * The procedures (by slug) whose versions this phone keeps in IndexedDB. The start page keeps
+ * them one by one after it loads, so a test waits for the ones it needs, not for a count.
+ */
+export const keptSlugs = (page: Page) => page.evaluate(() => new Promise<string[]>((resolve) => {
+  const open = indexedDB.open('sparkwright-bench');
+  open.onsuccess = () => {
+    const db = open.result;
+    if (!db.objectStoreNames.contains('versions')) { db.close(); resolve([]); return; }
+    const all = db.transaction('versions').objectStore('versions').getAll();
+    all.onsuccess = () => { db.close(); resolve((all.result as { slug: string }[]).map((v) => v.slug)); };
+  };
+}));

@@ -37,6 +37,11 @@ function publish(next: Partial<SyncStatus>): void {
   for (const l of listeners) l();
 }
 
+/** Messages that can still go now: those waiting less those held behind a refusal. */
+export function sendable(s: SyncStatus): number {
+  return s.waiting - s.refused.reduce((n, r) => n + r.held, 0);
+}
+
 /** For useSyncExternalStore: the screen always shows whether everything is synced. */
 export const syncStore = {
   subscribe(listener: () => void): () => void {
@@ -150,7 +155,12 @@ async function drain(db: Db): Promise<void> {
     after = item.seq!;
     const outcome = await attempt(db, item);
     if (outcome === 'transient') return;
-    if (outcome === 'refused') held.add(item.diagnosisId);
+    if (outcome === 'sent') {
+      // A sent message changes only the count: no refusal or set-aside list to read again.
+      publish({ waiting: await db.count('outbox') });
+      continue;
+    }
+    held.add(item.diagnosisId);
     await refresh(db);
   }
 }
@@ -271,7 +281,6 @@ export function startOutbox(): void {
   started = true;
   window.addEventListener('online', () => { publish({ online: true }); void flushOutbox(); });
   window.addEventListener('offline', () => publish({ online: false }));
-  const held = () => status.refused.reduce((n, r) => n + r.held, 0);
-  setInterval(() => { if (status.waiting > held()) void flushOutbox(); }, 4000);
+  setInterval(() => { if (sendable(status) > 0) void flushOutbox(); }, 4000);
   void flushOutbox();
 }

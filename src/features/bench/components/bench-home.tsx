@@ -102,12 +102,14 @@ function RecentList({ ended, loaded, failed }: { ended: DiagnosisSummary[]; load
 function useDiagnosesOnPhone(): { all: LocalDiagnosis[]; resumable: LocalDiagnosis[] } {
   const [local, setLocal] = useState<LocalDiagnosis[]>([]);
   const { aside } = useSyncExternalStore(syncStore.subscribe, syncStore.get);
-  // Re-read when the set-aside list changes: a removed diagnosis leaves the phone.
-  useEffect(() => { void listLocalDiagnoses().then(setLocal); }, [aside]);
+  // The sync status is published anew after every message: only a change in which diagnoses are
+  // set aside (one removed leaves the phone) calls for reading the phone's list again.
+  const asideIds = aside.map((a) => a.diagnosisId).join(' ');
+  useEffect(() => { void listLocalDiagnoses().then(setLocal); }, [asideIds]);
   return useMemo(() => {
-    const setAside = new Set(aside.map((a) => a.diagnosisId));
+    const setAside = new Set(asideIds.split(' '));
     return { all: local, resumable: local.filter((d) => d.status === 'active' && !setAside.has(d.id)) };
-  }, [local, aside]);
+  }, [local, asideIds]);
 }
 
 /** Bench home: resume active diagnoses (from this phone and the server), start one, see history. */

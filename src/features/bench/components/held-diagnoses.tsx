@@ -52,7 +52,8 @@ function AsideRow({ a, current }: { a: AsideDiagnosis; current: boolean }) {
         <Button size="lg" variant="secondary" onClick={() => void download(a)}>
           Download<span className="sr-only"> {name}</span>
         </Button>
-        {confirming ? (
+        {/* Not from its own screen: a step answered after removing would bring it back half-kept. */}
+        {current ? null : confirming ? (
           <Button size="lg" variant="danger" onClick={() => void removeSetAside(a.diagnosisId)}>Yes, remove: my lead has the file</Button>
         ) : (
           <Button size="lg" variant="secondary" onClick={() => setConfirming(true)}>
@@ -71,7 +72,7 @@ export function AsideList({ aside, current }: { aside: AsideDiagnosis[]; current
     <section aria-label="Set aside on this phone" data-testid="set-aside" className="space-y-2 rounded-lg border-2 border-ink/60 bg-panel p-3 text-ink">
       <p className="text-lg font-bold">{thisOne ? 'This diagnosis was set aside: its record is not on the server' : 'Set aside on this phone'}</p>
       <p>{thisOne
-        ? 'Steps answered from here on are kept in the file too: download it after the last one and give it to your lead to enter by hand.'
+        ? 'Steps answered from here on are kept in the file too: download it after the last one and give it to your lead to enter by hand, then remove it from this phone on the Bench home.'
         : 'Set-aside diagnoses never reached the server. Download each one and give the file to your lead to enter by hand.'}</p>
       <ul className="space-y-2">
         {aside.map((a) => <AsideRow key={a.diagnosisId} a={a} current={a.diagnosisId === current} />)}

@@ -1,5 +1,5 @@
 import { useSyncExternalStore } from 'react';
-import { syncStore, type RefusedDiagnosis, type SyncStatus } from '../../../lib/offline/outbox';
+import { sendable, syncStore, type RefusedDiagnosis, type SyncStatus } from '../../../lib/offline/outbox';
 import { cx } from '../../../components/ui/cx';
 import { AsideList, RefusedCard } from './held-diagnoses';
 
@@ -21,7 +21,7 @@ export function heldWords(k: RefusedDiagnosis['heldKinds']): string {
 function SyncPill({ s }: { s: SyncStatus }) {
   const synced = s.waiting === 0;
   // A pulse says "sending"; when everything left is held by a refusal nothing is moving.
-  const moving = s.online && s.waiting > s.refused.reduce((n, r) => n + r.held, 0);
+  const moving = s.online && sendable(s) > 0;
   return (
     <p role="status" data-testid="sync-status" data-synced={synced ? 'yes' : 'no'}
       className={cx('inline-flex min-h-10 items-center gap-2 rounded-full px-3 text-base font-bold', synced ? 'bg-go-soft text-go' : 'bg-signal-soft text-ink')}>

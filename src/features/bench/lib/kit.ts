@@ -22,12 +22,16 @@ export async function keptOnPhone<T>(key: string, fetcher: () => Promise<T>): Pr
   }
 }
 
+/** The latest published version of a procedure, from the server, kept on the phone as well. */
+export async function fetchVersion(slug: string): Promise<BenchVersion> {
+  const version = await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(slug)}`);
+  await saveVersion(version);
+  return version;
+}
+
 /** Keeps each listed version on the phone, fetching only those it does not have yet. */
 export async function keepVersions(list: readonly BenchProcedure[]): Promise<void> {
-  for (const p of list) {
-    if (await getVersion(p.versionId)) continue;
-    await saveVersion(await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(p.slug)}`));
-  }
+  for (const p of list) if (!(await getVersion(p.versionId))) await fetchVersion(p.slug);
 }
 
 /** The server's filter, on the phone: symptom or title contains the words; ignition system equal. */

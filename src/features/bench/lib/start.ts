@@ -1,8 +1,8 @@
 import { api } from '../../../lib/api-client';
-import { commitLocal, findVersionBySlug, saveVersion, type LocalVersion } from '../../../lib/offline/db';
+import { commitLocal, findVersionBySlug, type LocalVersion } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
-import type { BenchVersion, Meter, Vehicle } from '../api/types';
-import { isOffline } from './kit';
+import type { Meter, Vehicle } from '../api/types';
+import { fetchVersion, isOffline } from './kit';
 
 export interface StartForm {
   slug: string; vehicleId: string; meterId: string; complaint: string;
@@ -14,9 +14,7 @@ const decimal = (s: string) => Number(s.replace(',', '.'));
 /** The latest published version, from the server with signal, else the one kept on the phone. */
 async function versionFor(slug: string): Promise<LocalVersion> {
   try {
-    const version = await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(slug)}`);
-    await saveVersion(version);
-    return version;
+    return await fetchVersion(slug);
   } catch (e) {
     const kept = isOffline(e) ? await findVersionBySlug(slug) : undefined;
     if (!kept) {

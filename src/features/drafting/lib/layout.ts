@@ -2,8 +2,6 @@ import type { ProcedureDocument, Position } from '@shared/schema';
 import { branchesOf } from '@shared/schema';
 import { stepBox } from '@shared/engine/geometry';
 
-export { nodeWidth } from '@shared/engine/geometry';
-
 /**
  * Layered top-down layout by ELK. elkjs is large, so it is imported only when an author asks for a
  * layout. Returns new positions by step id.

@@ -4,7 +4,7 @@ import { cx } from '../../../../components/ui/cx';
 import type { StepNode } from '../../lib/flow';
 import { KIND_LABELS } from '../labels';
 import { KIND_TONE, OUTLINE, OutlineShape, StepGlyph } from './step-glyphs';
-import { nodeWidth } from '../../lib/layout';
+import { nodeWidth } from '@shared/engine/geometry';
 
 /**
  * One step on the canvas: the ISO 5807 outline with the title inside, and below it one labelled
