@@ -3,7 +3,7 @@ import type { Role } from '@shared/schema/roles';
 import { LRUCache } from 'lru-cache';
 import { announce, onEviction } from '../lib/cache-bus';
 import { Membership } from '../models';
-import { AppError, forbidden, unauthenticated } from '../lib/errors';
+import { AppError, unauthenticated } from '../lib/errors';
 
 export interface SessionUser { id: string; email: string; name: string }
 
@@ -67,15 +67,6 @@ export const requireShop: RequestHandler = async (req, _res, next) => {
   req.ctx = { userId: req.user.id, shopId, roles: [...roles] };
   next();
 };
-
-/** Allows the request when the member holds any of the roles. Use after requireShop. */
-export function requireRole(...allowed: Role[]): RequestHandler {
-  return (req, _res, next) => {
-    if (!req.ctx) return next(unauthenticated());
-    if (!req.ctx.roles.some((r) => allowed.includes(r))) return next(forbidden());
-    next();
-  };
-}
 
 export function ctxOf(req: Request): ShopContext {
   if (!req.ctx) throw unauthenticated();

@@ -2,7 +2,8 @@ import { Router } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import type { AppDeps } from '../deps';
-import { ctxOf, requireRole } from '../auth/context';
+import { ctxOf } from '../auth/context';
+import { allow, allowDiagnosisReading } from '../auth/policy';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
 import { addPhoto, MAX_PHOTO_BYTES, readPhoto } from '../services/attachment.service';
@@ -18,7 +19,7 @@ export function attachmentRoutes(deps: AppDeps): Router {
   const r = Router();
   // preservePath keeps a sent folder in the name so that it can be refused instead of silently cut off.
   const upload = multer({ storage: multer.memoryStorage(), preservePath: true, limits: { fileSize: MAX_PHOTO_BYTES, files: 2, fields: 10, fieldSize: 1024 } });
-  r.post('/', requireRole('technician', 'lead'), upload.fields([{ name: 'photo', maxCount: 1 }, { name: 'thumb', maxCount: 1 }]), async (req, res) => {
+  r.post('/', allow('diagnosis.work'), upload.fields([{ name: 'photo', maxCount: 1 }, { name: 'thumb', maxCount: 1 }]), async (req, res) => {
     const fields = parseInput(PhotoFields, req.body, 'The photo');
     const files = (req.files ?? {}) as Record<string, Express.Multer.File[] | undefined>;
     const out = await addPhoto(deps, ctxOf(req), {
@@ -33,7 +34,7 @@ export function attachmentRoutes(deps: AppDeps): Router {
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.send(photo.body);
   };
-  r.get('/:id', send(false));
-  r.get('/:id/thumb', send(true));
+  r.get('/:id', allowDiagnosisReading, send(false));
+  r.get('/:id/thumb', allowDiagnosisReading, send(true));
   return r;
 }

@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import type { AppDeps } from '../deps';
-import { ctxOf, requireRole } from '../auth/context';
+import { ctxOf } from '../auth/context';
+import { allow, allowDiagnosisReading } from '../auth/policy';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
 import {
@@ -14,12 +15,12 @@ import { findingsAnalytics, readingsAnalytics, stepsAnalytics, timesAnalytics } 
 import { adviseVersion, draftFromAdvice } from '../services/debrief-advisor.service';
 import { debriefProcedures, debriefTechnicians } from '../services/debrief-procedures.service';
 
-/** Debrief: trainers and leads read the shop's diagnoses and analytics; technicians their own diagnoses. */
+/** Debrief: trainers and leads read the shop's diagnoses and analytics; Bench workers their own diagnoses. */
 export function debriefRoutes(deps: AppDeps): Router {
   const r = Router();
   const sql = sqlOf(deps);
-  const readers = requireRole('trainer', 'lead', 'technician');
-  const analysts = requireRole('trainer', 'lead');
+  const readers = allowDiagnosisReading;
+  const analysts = allow('analytics.read');
 
   r.get('/procedures', analysts, async (req, res) => { res.json(await debriefProcedures(sql, ctxOf(req))); });
   r.get('/technicians', analysts, async (req, res) => { res.json(await debriefTechnicians(sql, ctxOf(req))); });
@@ -35,7 +36,7 @@ export function debriefRoutes(deps: AppDeps): Router {
   r.get('/diagnoses/:id', readers, async (req, res) => {
     res.json(await replayDiagnosis(sql, ctxOf(req), idParam(req, 'id', 'That diagnosis')));
   });
-  r.post('/diagnoses/:id/coaching-notes', analysts, async (req, res) => {
+  r.post('/diagnoses/:id/coaching-notes', allow('coaching.write'), async (req, res) => {
     const body = parseInput(coachingNoteBodySchema, req.body, 'The coaching note');
     res.status(201).json(await addCoachingNote(sql, ctxOf(req), idParam(req, 'id', 'That diagnosis'), body));
   });
@@ -50,7 +51,7 @@ export function debriefRoutes(deps: AppDeps): Router {
   r.get('/analytics/readings', analysts, analytics((s) => readingsAnalytics(sql, s)));
   r.get('/analytics/times', analysts, analytics((s) => timesAnalytics(sql, s)));
   r.get('/analytics/advisor', analysts, analytics((s) => adviseVersion(sql, s)));
-  r.post('/advisor/drafts', requireRole('lead'), async (req, res) => {
+  r.post('/advisor/drafts', allow('advice.draft'), async (req, res) => {
     res.status(201).json(await draftFromAdvice(deps, sql, ctxOf(req), parseInput(advisorDraftBodySchema, req.body, 'The proposal')));
   });
   return r;

@@ -1,6 +1,7 @@
 import { Router, type Request } from 'express';
 import type { AppDeps } from '../deps';
-import { requireRole, ctxOf } from '../auth/context';
+import { ctxOf } from '../auth/context';
+import { allow } from '../auth/policy';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
 import * as inputs from '../services/procedure-inputs';
@@ -20,9 +21,9 @@ const ids = (req: Request) => ({
  */
 export function procedureRoutes(deps: AppDeps): Router {
   const r = Router();
-  const author = requireRole('author');
-  const lead = requireRole('lead');
-  const drafting = requireRole('author', 'lead');
+  const author = allow('procedure.author');
+  const lead = allow('procedure.review');
+  const drafting = allow('procedure.draft');
 
   r.get('/', async (req, res) => {
     res.json(await procedures.listProcedures(deps, ctxOf(req), parseInput(inputs.procedureListQuery, req.query, 'The search')));

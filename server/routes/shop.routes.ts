@@ -1,6 +1,7 @@
 import { Router } from 'express';
 import type { AppDeps } from '../deps';
-import { requireRole, ctxOf } from '../auth/context';
+import { ctxOf } from '../auth/context';
+import { allow } from '../auth/policy';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
 import { InviteInput, UpdateRolesInput } from '@shared/schema/auth';
@@ -12,7 +13,7 @@ import { AppError } from '../lib/errors';
 /** Shop administration: members, invitations, settings, meters, and the development mailbox. */
 export function shopRoutes(deps: AppDeps): Router {
   const r = Router();
-  const admin = requireRole('admin');
+  const admin = allow('shop.manage');
 
   r.get('/members', admin, async (req, res) => res.json(await shop.listMembers(ctxOf(req))));
   r.patch('/members/:id', admin, async (req, res) => {

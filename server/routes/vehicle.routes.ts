@@ -1,14 +1,15 @@
 import { Router } from 'express';
-import { requireRole, ctxOf } from '../auth/context';
+import { ctxOf } from '../auth/context';
+import { allow } from '../auth/policy';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
 import { VehicleInput, VehicleListQuery } from '@shared/schema/vehicle';
 import * as vehicles from '../services/vehicle.service';
 
-/** Every member may look machines up; admins, leads and technicians may add and edit them. */
+/** Every member may look machines up; admins and Bench workers may add and edit them. */
 export function vehicleRoutes(): Router {
   const r = Router();
-  const editors = requireRole('admin', 'lead', 'technician');
+  const editors = allow('vehicle.edit');
   r.get('/', async (req, res) => {
     const { q } = parseInput(VehicleListQuery, req.query);
     res.json(await vehicles.listVehicles(ctxOf(req), q));

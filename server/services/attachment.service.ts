@@ -4,6 +4,7 @@ import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
 import { AppError, badRequest, notFound } from '../lib/errors';
 import { findReadable } from './diagnosis.service';
+import { checkDiagnosis } from '../auth/policy';
 
 /** Photos up to 8 MB (the error handler's message names the same figure). */
 export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
@@ -32,7 +33,7 @@ async function writable(deps: AppDeps, ctx: ShopContext, diagnosisId: string): P
   const [d] = await deps.sequelize.query<{ technician_id: string }>(
     'SELECT technician_id FROM diagnoses WHERE id = :id AND shop_id = :shopId', { replacements: { id: diagnosisId, shopId: ctx.shopId }, type: QueryTypes.SELECT });
   if (!d) throw notFound('That diagnosis');
-  if (d.technician_id !== ctx.userId && !ctx.roles.includes('lead')) throw notFound('That diagnosis');
+  checkDiagnosis(ctx, d.technician_id, 'write');
 }
 
 const toDto = (r: { id: string; diagnosis_id: string; step_id: string | null; content_type: string; byte_size: number; original_name: string; thumb_key: string | null }): AttachmentDto => ({

@@ -1,5 +1,6 @@
 import type { ShopContext } from '../auth/context';
-import { badRequest, forbidden } from '../lib/errors';
+import { badRequest } from '../lib/errors';
+import { demand } from '../auth/policy';
 import type { CoachingNoteBody } from '@shared/stats/debrief-schema';
 import { audit } from './audit';
 import { findDiagnosisRow } from './debrief-diagnoses.service';
@@ -30,7 +31,7 @@ export async function notesOf(sql: Sql, shopId: string, diagnosisId: string): Pr
  * The technician sees it in their own history.
  */
 export async function addCoachingNote(sql: Sql, ctx: ShopContext, diagnosisId: string, input: CoachingNoteBody): Promise<CoachingNoteDto> {
-  if (!ctx.roles.includes('trainer') && !ctx.roles.includes('lead')) throw forbidden('write coaching notes');
+  demand(ctx, 'coaching.write');
   const diagnosis = await findDiagnosisRow(sql, ctx, diagnosisId);
   const stepId = input.stepId ?? null;
   if (stepId !== null) {

@@ -2,7 +2,8 @@ import { UniqueConstraintError } from 'sequelize';
 import type { ShopContext } from '../auth/context';
 import type { AppDeps } from '../deps';
 import { ProcedureVersion } from '../models';
-import { AppError, badRequest, conflict, forbidden, notFound } from '../lib/errors';
+import { AppError, badRequest, conflict, notFound } from '../lib/errors';
+import { demand } from '../auth/policy';
 import { adviseChain, findCheckChains, reorderChain, type CheckChain } from '@shared/engine/advisor';
 import { lintProcedure } from '@shared/engine/lint';
 import { branchesOf } from '@shared/schema/branches';
@@ -76,7 +77,7 @@ export async function adviseVersion(sql: Sql, scope: Scope): Promise<AdvisorAnsw
  * 409 when a draft is already open; 422 when the reordered procedure would not pass the soundness check.
  */
 export async function draftFromAdvice(deps: Pick<AppDeps, 'sequelize'>, sql: Sql, ctx: ShopContext, body: AdvisorDraftBody) {
-  if (!ctx.roles.includes('lead')) throw forbidden('turn a proposal into a draft');
+  demand(ctx, 'advice.draft');
   const [source] = await sql(`SELECT id, procedure_id, number, document, lint_report FROM procedure_versions
     WHERE id = $1 AND shop_id = $2 AND status = 'published'`, [body.versionId, ctx.shopId]);
   if (!source) throw notFound('That published version');

@@ -1,7 +1,8 @@
 import type { ShopContext } from '../auth/context';
 import { notFound } from '../lib/errors';
 import type { DiagnosisFilter, DiagnosisListQuery, DiagnosisPage, DiagnosisRow, DiagnosisStatus } from '@shared/stats/debrief-schema';
-import { comebackDays, dayBounds, diagnosisReader, num, parseDocument, type Sql } from './debrief-scope';
+import { diagnosisScope } from '../auth/policy';
+import { comebackDays, dayBounds, num, parseDocument, type Sql } from './debrief-scope';
 
 // The diagnoses table of Debrief: filtered, sorted and paged in SQL; flags computed per row.
 
@@ -30,7 +31,7 @@ function where(ctx: ShopContext, f: DiagnosisFilter, days: number): { clause: st
   const bind: unknown[] = [ctx.shopId, days];
   const parts = ['d.shop_id = $1'];
   const add = (sql: string, value: unknown) => { bind.push(value); parts.push(sql.replace('?', `$${bind.length}`)); };
-  const { ownOnly } = diagnosisReader(ctx);
+  const { ownOnly } = diagnosisScope(ctx);
   if (ownOnly) add('d.technician_id = ?', ownOnly);
   if (f.procedureId) add('v.procedure_id = ?', f.procedureId);
   if (f.versionId) add('d.procedure_version_id = ?', f.versionId);

@@ -1,12 +1,13 @@
 import type { ShopContext } from '../auth/context';
-import { requireAnalyticsReader, parseDocument, type Sql } from './debrief-scope';
+import { demand } from '../auth/policy';
+import { parseDocument, type Sql } from './debrief-scope';
 import type { DebriefProcedure } from '@shared/stats/debrief-answers';
 
 export type { DebriefProcedure } from '@shared/stats/debrief-answers';
 
 /** Procedures of the shop that have a numbered version, with diagnosis counts per version. */
 export async function debriefProcedures(sql: Sql, ctx: ShopContext): Promise<DebriefProcedure[]> {
-  requireAnalyticsReader(ctx);
+  demand(ctx, 'analytics.read');
   const rows = await sql(`SELECT p.id AS procedure_id, p.slug, p.title, v.id, v.number, v.status, v.published_at, v.document,
       (SELECT count(*) FROM diagnoses d WHERE d.shop_id = $1 AND d.procedure_version_id = v.id) AS diagnoses
     FROM procedures p JOIN procedure_versions v ON v.procedure_id = p.id AND v.status IN ('published', 'retired')
@@ -28,7 +29,7 @@ export async function debriefProcedures(sql: Sql, ctx: ShopContext): Promise<Deb
 
 /** Technicians of the shop, for the table's technician filter. */
 export async function debriefTechnicians(sql: Sql, ctx: ShopContext): Promise<{ id: string; name: string }[]> {
-  requireAnalyticsReader(ctx);
+  demand(ctx, 'analytics.read');
   const rows = await sql(`SELECT u.id, u.name FROM memberships m JOIN users u ON u.id = m.user_id
     WHERE m.shop_id = $1 AND 'technician' = ANY(m.roles) ORDER BY u.name`, [ctx.shopId]);
   return rows.map((r) => ({ id: String(r.id), name: String(r.name) }));

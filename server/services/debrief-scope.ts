@@ -1,20 +1,11 @@
 import { QueryTypes } from 'sequelize';
 import type { ShopContext } from '../auth/context';
 import type { AppDeps } from '../deps';
-import { AppError, forbidden, notFound } from '../lib/errors';
+import { AppError, notFound } from '../lib/errors';
 import { upgradeProcedure, type ProcedureDocument } from '@shared/schema';
 import type { AnalyticsQuery } from '@shared/stats/debrief-schema';
+import { demand } from '../auth/policy';
 
-/** Trainers and leads read everything of their shop; a technician reads only their own diagnoses. */
-export function diagnosisReader(ctx: ShopContext): { ownOnly: string | null } {
-  if (ctx.roles.includes('trainer') || ctx.roles.includes('lead')) return { ownOnly: null };
-  if (ctx.roles.includes('technician')) return { ownOnly: ctx.userId };
-  throw forbidden('read diagnoses');
-}
-
-export function requireAnalyticsReader(ctx: ShopContext): void {
-  if (!ctx.roles.includes('trainer') && !ctx.roles.includes('lead')) throw forbidden('read Debrief analytics');
-}
 
 export type Sql = (sql: string, bind: unknown[]) => Promise<Record<string, unknown>[]>;
 
@@ -54,7 +45,7 @@ export interface Scope {
 
 /** The procedure (and version) of the caller's shop that analytics run over; foreign ids are 404. */
 export async function analyticsScope(sql: Sql, ctx: ShopContext, q: AnalyticsQuery): Promise<Scope> {
-  requireAnalyticsReader(ctx);
+  demand(ctx, 'analytics.read');
   const rows = await sql(
     `SELECT p.title, v.id, v.number, v.document FROM procedures p
      JOIN procedure_versions v ON v.procedure_id = p.id AND v.status IN ('published', 'retired')

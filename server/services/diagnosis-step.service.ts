@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { LRUCache } from 'lru-cache';
 import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
+import { checkDiagnosis } from '../auth/policy';
 import { AppError, notFound } from '../lib/errors';
 import { parseInput } from '../lib/validate';
 import { loadPinnedVersion } from './bench.service';
@@ -196,8 +197,7 @@ export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: s
   for (let attempt = 0; attempt < 4; attempt++) {
     const { head, cached } = await readHead(deps, ctx, diagnosisId, input.id, attempt);
     if (!head) throw notFound('That diagnosis');
-    // Another technician's diagnosis is not theirs to read either, so it does not exist for them.
-    if (head.technician_id !== ctx.userId && !ctx.roles.includes('lead')) throw notFound('That diagnosis');
+    checkDiagnosis(ctx, head.technician_id, 'write');
     if (head.existing) {
       if (head.existing.diagnosis_id !== diagnosisId || head.existing.payload_hash !== hash) {
         throw new AppError(422, 'id_reused', 'A different step was already stored with this id. The app makes a new id per answer; reload the diagnosis and answer again.');

@@ -1,6 +1,7 @@
 import { QueryTypes } from 'sequelize';
 import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
+import { checkDiagnosis, diagnosisScope } from '../auth/policy';
 import { AppError, notFound } from '../lib/errors';
 import { Diagnosis, Meter, Vehicle } from '../models';
 import { loadPinnedVersion } from './bench.service';
@@ -13,12 +14,6 @@ export interface DiagnosisSummary {
   startedAt: string; endedAt: string | null; lastActivityAt: string; stepsAnswered: number; endingStepId: string | null;
 }
 
-const readers = ['lead', 'trainer', 'admin'] as const;
-
-/** Technicians read their own diagnoses; leads, trainers and admins read every one of the shop. */
-export function readsAll(ctx: ShopContext): boolean {
-  return ctx.roles.some((r) => (readers as readonly string[]).includes(r));
-}
 
 /** Starts a diagnosis with the phone's id; sending the same start again answers the stored one. */
 export async function startDiagnosis(deps: AppDeps, ctx: ShopContext, input: StartDiagnosisInput): Promise<{ created: boolean; id: string }> {
@@ -75,7 +70,7 @@ function toSummary(r: SummaryRow): DiagnosisSummary {
 
 /** The technician's own diagnoses (or, for leads and trainers asking for all, the shop's), newest first. */
 export async function listDiagnoses(deps: AppDeps, ctx: ShopContext, q: { status?: string | undefined; mine: '0' | '1' }): Promise<DiagnosisSummary[]> {
-  const mine = q.mine === '1' || !readsAll(ctx);
+  const mine = q.mine === '1' || diagnosisScope(ctx).ownOnly !== null;
   const rows = await deps.sequelize.query<SummaryRow>(
     `${SUMMARY_SQL} ${mine ? 'AND d.technician_id = :userId' : ''} ${q.status ? 'AND d.status = :status' : ''}
      ORDER BY d.last_activity_at DESC LIMIT 200`,
@@ -84,7 +79,7 @@ export async function listDiagnoses(deps: AppDeps, ctx: ShopContext, q: { status
   return rows.map(toSummary);
 }
 
-/** One diagnosis the caller may read (own, or any for leads/trainers/admins); otherwise a 404. */
+/** One diagnosis the caller may read (own, or any for leads and trainers); otherwise a 404. */
 type RecordRow = SummaryRow & {
   conditions: Record<string, unknown>; outcome: Record<string, unknown> | null; meter_name: string | null; meter_entries: unknown[] | null;
   vehicle_frame: string; vehicle_hours: string | null;
@@ -98,7 +93,8 @@ export async function findReadable(deps: AppDeps, ctx: ShopContext, id: string):
     { replacements: { shopId: ctx.shopId, id }, type: QueryTypes.SELECT },
   );
   const row = rows[0];
-  if (!row || (row.technician_id !== ctx.userId && !readsAll(ctx))) throw notFound('That diagnosis');
+  if (!row) throw notFound('That diagnosis');
+  checkDiagnosis(ctx, row.technician_id, 'read');
   return row;
 }
 

@@ -1,18 +1,12 @@
 import type { Transaction } from 'sequelize';
 import type { ShopContext } from '../auth/context';
 import { Procedure, ProcedureVersion, User } from '../models';
-import { AppError, forbidden, notFound } from '../lib/errors';
-import type { Role } from '@shared/schema/roles';
+import { AppError, notFound } from '../lib/errors';
+import { can } from '../auth/policy';
 
-/** Roles that see drafts and reviews; technicians and trainers only see numbered versions. */
-export const DRAFT_READERS: readonly Role[] = ['author', 'lead'];
-
+/** Authors and leads see drafts and reviews; everyone else only numbered versions. */
 export function readsDrafts(ctx: ShopContext): boolean {
-  return ctx.roles.some((r) => DRAFT_READERS.includes(r));
-}
-
-export function requireAnyRole(ctx: ShopContext, roles: readonly Role[], action: string): void {
-  if (!ctx.roles.some((r) => roles.includes(r))) throw forbidden(action);
+  return can(ctx, 'procedure.draft');
 }
 
 interface LoadOptions { transaction?: Transaction; lock?: boolean }

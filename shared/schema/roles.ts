@@ -1,5 +1,5 @@
 import { z } from 'zod';
 import { ROLES } from './role-names';
 
-export { ROLES, AREA_ROLES, hasAnyRole, type Role, type Area } from './role-names';
+export { ROLES, AREA_ROLES, PERMISSIONS, hasAnyRole, may, readsDiagnoses, type Role, type Area, type Permission } from './role-names';
 export const RoleSchema = z.enum(ROLES);

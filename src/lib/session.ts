@@ -1,7 +1,7 @@
 import { queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Me } from '@shared/schema/auth';
-import type { Area, Role } from '@shared/schema/role-names';
-import { AREA_ROLES, hasAnyRole } from '@shared/schema/role-names';
+import type { Area, Permission, Role } from '@shared/schema/role-names';
+import { AREA_ROLES, hasAnyRole, may } from '@shared/schema/role-names';
 import { api, ApiError, setCsrfToken } from './api-client';
 
 /** The signed-in person, or null when signed out. */
@@ -24,6 +24,8 @@ export interface Session {
   roles: Role[];
   shopName: string;
   can(area: Area): boolean;
+  /** The server's permission policy, for showing only what the member may do. */
+  may(permission: Permission): boolean;
 }
 
 export function useSession(): Session {
@@ -31,7 +33,7 @@ export function useSession(): Session {
   const me = data ?? null;
   const shop = me?.shops.find((s) => s.id === me.currentShopId);
   const roles = shop?.roles ?? [];
-  return { me, isLoading, roles, shopName: shop?.name ?? '', can: (area) => hasAnyRole(roles, AREA_ROLES[area]) };
+  return { me, isLoading, roles, shopName: shop?.name ?? '', can: (area) => hasAnyRole(roles, AREA_ROLES[area]), may: (p) => may(roles, p) };
 }
 
 export function useSignOut(): () => Promise<void> {

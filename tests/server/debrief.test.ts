@@ -108,9 +108,14 @@ describe('who sees what', () => {
     await tech.get(`/api/debrief/analytics/steps?procedureId=${ids.procedureId}`).expect(403);
   });
 
-  it('an author without a Debrief role is refused the table', async () => {
+  // Changed with the one permission policy: authors work on the Bench, so like technicians they
+  // read their own diagnoses here (none in this history); a member with no diagnosis role is refused.
+  it('an author without a Debrief role sees only their own diagnoses, and an admin is refused the table', async () => {
     const author = await signInAs(env.app, 'author');
-    await author.get('/api/debrief/diagnoses').expect(403);
+    const res = await author.get('/api/debrief/diagnoses').expect(200);
+    expect(res.body.total).toBe(0);
+    const admin = await signInAs(env.app, 'admin');
+    expect(expectEnvelope((await admin.get('/api/debrief/diagnoses').expect(403)).body).code).toBe('forbidden');
   });
 
   it('a trainer of another shop gets 404 for this shop\'s diagnosis and procedure, and sees none of its rows', async () => {

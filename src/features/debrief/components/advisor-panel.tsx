@@ -48,7 +48,7 @@ function ChainCard({ chain, doc, versionId, canDraft }: { chain: AdvisorChain; d
 
 /** The check-order advisor: independent checks ordered by chance of revealing the fault per minute. */
 export function AdvisorPanel({ q, doc, versionId }: { q: AnalyticsQuery; doc: ProcedureDocument; versionId: string }) {
-  const { roles } = useSession();
+  const session = useSession();
   const { data, isLoading, error } = useQuery(debriefQueries.advisor({ ...q, versionId }));
   if (isLoading) return <Spinner label="Estimating the checks" />;
   if (error || !data) return <Alert title="The advisor could not run">{(error as Error | null)?.message}</Alert>;
@@ -61,7 +61,7 @@ export function AdvisorPanel({ q, doc, versionId }: { q: AnalyticsQuery; doc: Pr
       </p>
       {data.chains.length === 0 && <EmptyState title="This version has no chain of independent checks to reorder" />}
       {data.chains.length > 0 && <p className="text-lg font-semibold">{adviceSummary(data.chains, formatDuration)}</p>}
-      {byTimeToWin(data.chains).map((c) => <ChainCard key={c.checks.join()} chain={c} doc={doc} versionId={data.versionId} canDraft={roles.includes('lead')} />)}
+      {byTimeToWin(data.chains).map((c) => <ChainCard key={c.checks.join()} chain={c} doc={doc} versionId={data.versionId} canDraft={session.may('advice.draft')} />)}
     </div>
   );
 }

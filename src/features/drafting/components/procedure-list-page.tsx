@@ -94,9 +94,9 @@ function ProcedureTable({ rows, canAuthor, canArchive }: { rows: ProcedureRow[];
 
 /** Drafting home: the shop's procedures with their draft and published state. */
 export function ProcedureListPage() {
-  const { roles } = useSession();
-  const canAuthor = roles.includes('author');
-  const canArchive = canAuthor || roles.includes('lead');
+  const session = useSession();
+  const canAuthor = session.may('procedure.author');
+  const canArchive = session.may('procedure.draft');
   const [filter, setFilter] = useState<ListFilter>({ q: '', status: 'any', archived: false });
   const [creating, setCreating] = useState(false);
   const list = useQuery(draftingQueries.list(filter));

@@ -1,3 +1,4 @@
+import { may, type Role } from '@shared/schema/role-names';
 import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
@@ -15,7 +16,7 @@ import type { SaveState } from '../../hooks/use-draft-saving';
 interface Props {
   ids: VersionIds;
   version: VersionDetail;
-  roles: string[];
+  roles: Role[];
   hasOpenDraft: boolean;
   errors: number;
   beforeMove: () => Promise<void>;
@@ -36,8 +37,8 @@ export function VersionActions({ ids, version, roles, hasOpenDraft, errors, befo
     mutationFn: () => startDraft(ids.procedureId, version.id),
     onSuccess: (v) => { void qc.invalidateQueries({ queryKey: draftingKeys.all }); navigate(`/drafting/${ids.procedureId}/versions/${v.id}`); },
   });
-  const author = roles.includes('author');
-  const lead = roles.includes('lead');
+  const author = may(roles, 'procedure.author');
+  const lead = may(roles, 'procedure.review');
   return (
     <div className="flex flex-wrap items-center gap-2">
       <a className="min-h-10 content-center rounded-md border border-line bg-panel px-3 text-sm font-semibold hover:border-ink" href={exportUrl(ids)} download>Export</a>

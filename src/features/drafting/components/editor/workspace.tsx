@@ -1,3 +1,4 @@
+import { may, type Role } from '@shared/schema/role-names';
 import { useCallback, useEffect, useMemo, useReducer, useState, type Dispatch, type SetStateAction } from 'react';
 import { useReactFlow, type ReactFlowInstance, type Viewport } from '@xyflow/react';
 import { lintProcedure, pathFigures, type LintReport } from '@shared/engine';
@@ -30,7 +31,7 @@ interface Props {
   ids: VersionIds;
   version: VersionDetail;
   base: VersionDetail | null;
-  roles: string[];
+  roles: Role[];
   hasOpenDraft: boolean;
   versions: VersionSummary[];
   onReload: () => void;
@@ -140,7 +141,7 @@ function useCommands({ doc, editable, selected, dispatch, onEdit, setPreview, fl
 
 /** The editor: palette, canvas and the side panel, over one history of edits. */
 export function Workspace({ ids, version, base, roles, hasOpenDraft, versions, onReload }: Props) {
-  const editable = version.status === 'draft' && roles.includes('author');
+  const editable = version.status === 'draft' && may(roles, 'procedure.author');
   const [history, dispatch] = useReducer(historyReducer, version.document, initialHistory);
   const doc = history.present;
   const [selected, setSelected] = useState<string[]>([]);
@@ -160,7 +161,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, versions, o
     <div className="flex h-[calc(100dvh-7.5rem)] min-h-[560px] flex-col gap-2">
       <WorkspaceHeader title={doc.meta.title} ids={ids} version={version} versions={versions} roles={roles} hasOpenDraft={hasOpenDraft}
         saving={saving} editable={editable} checked={checked} report={report} onReload={onReload} />
-      <EditorTools status={version.status} author={roles.includes('author')} editable={editable} history={history} preview={preview} dirty={saving.dirty} onSave={saving.save} commands={commands} />
+      <EditorTools status={version.status} author={may(roles, 'procedure.author')} editable={editable} history={history} preview={preview} dirty={saving.dirty} onSave={saving.save} commands={commands} />
       <SaveProblems state={saving.state} doc={doc} onReload={onReload} />
       <div className="flex min-h-0 flex-1 gap-2">
         {editable && <aside className="w-44 shrink-0 overflow-y-auto"><Palette disabled={!editable} onAdd={commands.addAtCentre} /></aside>}
@@ -168,7 +169,7 @@ export function Workspace({ ids, version, base, roles, hasOpenDraft, versions, o
           <Canvas doc={doc} marks={marks} selectRequest={selectRequest} readOnly={!editable} onEdit={onEdit} onSelect={onSelect} />
         </div>
         <SidePanel ids={ids} doc={doc} diff={diff} baseNumber={base?.number ?? null} report={report} figures={figures} checked={checked}
-          selected={selected} tab={tab} onTab={setTab} readOnly={!editable} canComment={roles.includes('author') || roles.includes('lead')}
+          selected={selected} tab={tab} onTab={setTab} readOnly={!editable} canComment={may(roles, 'procedure.draft')}
           preview={preview} onEdit={onEdit} onPick={pick} onShow={show} onPath={onPath} onClosePreview={() => setPreview(false)} />
       </div>
     </div>
