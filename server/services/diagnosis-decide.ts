@@ -1,6 +1,6 @@
 import type { ProcedureDocument, Step } from '@shared/schema/procedure';
 import { ProcedureWalk, type PathStep, type WalkEntry, type WalkProblem } from '@shared/engine/walk';
-import { resolveLimits, type Verdict } from '@shared/measure/verdict';
+import { recordedBranch, resolveLimits, type Verdict } from '@shared/measure/verdict';
 import { QUANTITY_INFO } from '@shared/measure/quantities';
 import { formatLimit } from '@shared/measure/format';
 import { AppError, badRequest } from '../lib/errors';
@@ -71,7 +71,7 @@ function decided(step: Step, p: PathStep, answer: StepAnswer): DecidedStep {
     value: p.value ?? null,
     unit: isValue ? QUANTITY_INFO[step.quantity].base : null,
     verdict: p.decision?.verdict ?? null,
-    bandId: route?.kind === 'band' ? route.band.id : null,
+    bandId: recordedBranch(route),
     answerId: step.kind === 'observation' ? answer.answerId ?? null : null,
     next: p.next,
     shown: {

@@ -51,6 +51,17 @@ export type Route =
   | { readonly kind: 're-measure' }
   | { readonly kind: 'no-band' };
 
+/**
+ * The branch a route took as the record stores it (`band_id`): the band's id, `'borderline'` for
+ * the author's borderline branch, null when the reading took no branch (re-measure, no band).
+ * Example: recordedBranch({ kind: 'borderline-branch', next: 'capReplace' }) === 'borderline'
+ */
+export function recordedBranch(route: Route | undefined): string | null {
+  if (route?.kind === 'band') return route.band.id;
+  if (route?.kind === 'borderline-branch') return 'borderline';
+  return null;
+}
+
 export interface DecideInput {
   /** The value as measured, in base units. */
   readonly value: number;
