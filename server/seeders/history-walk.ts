@@ -1,10 +1,15 @@
 import type { Band, ProcedureDocument, Step, StepId } from '@shared/schema/procedure';
 import { branchesOf, isEnding, type Branch } from '@shared/schema/branches';
-import { classify, meterUncertainty, resolveLimits, type Verdict } from '@shared/measure/verdict';
+import { resolveLimits } from '@shared/measure/verdict';
 import { bandContains } from '@shared/measure/bands';
+import { formatReading } from '@shared/measure/format';
+import type { ProcedureWalk } from '@shared/engine/walk';
+import { AppError } from '../lib/errors';
+import { decideStep, type DecidedStep, type PathRow, type StepAnswer } from '../services/diagnosis-decide';
 
 // Invented demo history: walks a published procedure towards a fault drawn from stated shares,
-// with readings drawn around the limits. Nothing here is service data.
+// with readings drawn around the limits, each answer decided by the live step code. Nothing here
+// is service data.
 
 export { rng } from '@shared/stats/rng';
 
@@ -16,27 +21,26 @@ export function pick<T>(rand: () => number, xs: readonly T[]): T {
   return xs[Math.floor(rand() * xs.length)]!;
 }
 
-/** One answered step as the walk produced it. */
+/** One answered step: the answer the invented technician gave, decided as the live endpoint decides it. */
 export interface WalkedStep {
   stepId: StepId;
   kind: Step['kind'];
-  title: string;
-  value: number | null;
-  verdict: Verdict | null;
-  bandId: string | null;
-  answerId: string | null;
-  nextStepId: StepId;
+  decided: DecidedStep;
+  /** What the phone would have sent (hashed for the record's payload_hash). */
+  answer: StepAnswer;
   superseded: boolean;
   seconds: number;
 }
 
 export interface Walk {
+  /** Answered steps before the ending, superseded ones included, in the order they happened. */
   steps: WalkedStep[];
+  /** The Finding or Hand-off the walk reached, decided like the others. */
+  end: WalkedStep | null;
   endingStepId: StepId;
   ending: 'finding' | 'handoff';
 }
 
-/** Precomputed per document: which endings each step can still reach, and the fault shares. */
 export interface WalkPlan {
   doc: ProcedureDocument;
   byId: Map<StepId, Step>;
@@ -95,7 +99,12 @@ export function valueInBand(band: Pick<Band, 'lower' | 'upper'>, limits: { min?:
   if (lo !== undefined && hi !== undefined) v = (lo + hi) / 2 + normal(rand) * (hi - lo) / 4;
   else if (lo !== undefined) v = lo + Math.abs(normal(rand)) * span * 0.35;
   else if (hi !== undefined) v = hi - Math.abs(normal(rand)) * span * 0.35;
-  else v = normal(rand) * span;
+  else {
+    // A band with no ends: around the limit, and never below zero when the limit is not.
+    const mid = limits.min ?? limits.max ?? 0;
+    v = mid + normal(rand) * span * 0.5;
+    if (mid >= 0 && v < 0) v = -v;
+  }
   if (hi !== undefined && hi > 0 && lo === undefined && v < 0) v = hi * rand();
   // Now and then a reading sits just inside a band end (a limit), where borderline verdicts live.
   const ends = [lo, hi].filter((e): e is number => e !== undefined);
@@ -113,23 +122,40 @@ function stepSeconds(plan: WalkPlan, step: Step, rand: () => number, speed: numb
   return Math.max(3, Math.round(minutes * 60 * speed * Math.exp(0.45 * normal(rand))));
 }
 
-interface Choice { branch: Branch; value: number | null; verdict: Verdict | null }
+/** The branch towards the target ending that the invented technician means to take. */
+function aim(plan: WalkPlan, step: Step, target: StepId, rand: () => number): Branch {
+  const branches = branchesOf(step).filter((b) => b.kind !== 'borderline');
+  const good = branches.filter((b) => plan.reaches.get(b.to)?.has(target));
+  return pick(rand, good.length ? good : branches.length ? branches : branchesOf(step));
+}
 
-function choose(plan: WalkPlan, step: Step, target: StepId, rand: () => number, bias: number): Choice {
-  const branches = branchesOf(step);
-  const good = branches.filter((b) => b.kind !== 'borderline' && plan.reaches.get(b.to)?.has(target));
-  const branch = pick(rand, good.length ? good : branches);
-  if ((step.kind !== 'reading' && step.kind !== 'formula') || branch.kind !== 'band') return { branch, value: null, verdict: null };
-  const band = step.bands.find((b) => `band:${b.id}` === branch.handle)!;
-  const limits = step.limits ? resolveLimits(step.limits) : {};
-  const value = valueInBand(band, limits, rand) * bias;
-  const inBand = bandContains({ id: band.id, lower: band.lower, upper: band.upper }, value) ? value : value / bias;
-  if (step.kind !== 'reading' || !step.limits) return { branch, value: inBand, verdict: null };
-  const U = step.meter ? meterUncertainty(inBand, step.meter).expanded : 0;
-  const { verdict } = classify(inBand, limits, U, step.decision);
-  const borderline = branches.find((b) => b.kind === 'borderline');
-  const isBorderline = verdict === 'borderline-low' || verdict === 'borderline-high';
-  return { branch: isBorderline && borderline ? borderline : branch, value: inBand, verdict };
+/** What the technician enters to take `branch`: a reading drawn in its band, or the answer. */
+function answerFor(step: Step, branch: Branch, rand: () => number, bias: number): StepAnswer {
+  const acknowledged = step.safety.some((n) => n.signal === 'DANGER');
+  if (step.kind === 'observation') return { stepId: step.id, answerId: branch.handle.slice('answer:'.length), acknowledged };
+  if (step.kind !== 'reading') return { stepId: step.id, acknowledged };
+  const band = step.bands.find((b) => `band:${b.id}` === branch.handle) ?? step.bands[0]!;
+  const value = valueInBand(band, step.limits ? resolveLimits(step.limits) : {}, rand) * bias;
+  return { stepId: step.id, entered: formatReading({ value, quantity: step.quantity }), acknowledged };
+}
+
+interface Decider { walk: ProcedureWalk | undefined; keep: PathRow[] }
+
+/**
+ * Decides the answer exactly as the step endpoint does (decideStep over the path so far). A drawn
+ * reading the walker cannot place (a gap the bias pushed it into) is drawn again unbiased, then
+ * at the middle of the band.
+ */
+function decide(plan: WalkPlan, d: Decider, step: Step, branch: Branch, rand: () => number, bias: number): { decided: DecidedStep; walk: ProcedureWalk; answer: StepAnswer } {
+  for (const b of [bias, 1, 0]) {
+    const answer = b === 0 && step.kind === 'reading' ? answerFor(step, branch, () => 0.5, 1) : answerFor(step, branch, rand, b || 1);
+    try {
+      return { ...decideStep(plan.doc, plan.byId, d.keep, answer, d.walk), answer };
+    } catch (e) {
+      if (!(e instanceof AppError) || step.kind !== 'reading') throw e;
+    }
+  }
+  throw new Error(`The demo history cannot answer ${step.id}: no drawn reading lands in a band.`);
 }
 
 export interface WalkOptions {
@@ -142,42 +168,44 @@ export interface WalkOptions {
   takeBackChance: number;
 }
 
-/** Walks the procedure from its start towards a drawn fault; at most 200 answered steps. */
+/**
+ * Walks the procedure from its start towards a drawn fault, every answer decided by the same code
+ * as a live step (so verdicts, re-measures, the borderline branch and Formulas are what Bench
+ * stores); at most 200 answered steps.
+ */
 export function walkTowardsFault(plan: WalkPlan, o: WalkOptions): Walk {
   let target = drawEnding(plan, o.rand);
   const steps: WalkedStep[] = [];
-  let at = plan.doc.start;
+  const d: Decider = { walk: undefined, keep: [] };
   let takeBack = o.rand() < o.takeBackChance;
   for (let guard = 0; guard < 200; guard++) {
-    const step = plan.byId.get(at)!;
-    if (isEnding(step)) return { steps, endingStepId: at, ending: step.kind === 'finding' ? 'finding' : 'handoff' };
-    const reach = plan.reaches.get(at);
+    const at = d.walk ? (d.walk.path[d.keep.length]?.stepId ?? d.walk.current?.id) : plan.doc.start;
+    const step = at === undefined ? undefined : plan.byId.get(at);
+    if (!step) break;
+    const reach = plan.reaches.get(step.id);
     if (reach && !reach.has(target) && reach.size) target = drawEnding(plan, o.rand, reach);
-    const c = choose(plan, step, target, o.rand, o.bias);
-    const alternatives = branchesOf(step).filter((b) => b.to !== c.branch.to);
-    if (takeBack && alternatives.length && o.rand() < 0.4) {
+    const branch = aim(plan, step, target, o.rand);
+    const alternatives = branchesOf(step).filter((b) => b.kind !== 'borderline' && b.to !== branch.to);
+    if (takeBack && alternatives.length && (step.kind === 'observation' || step.kind === 'reading') && o.rand() < 0.4) {
       takeBack = false;
-      const wrong = pick(o.rand, alternatives);
-      steps.push(walked(step, { ...c, branch: wrong }, stepSeconds(plan, step, o.rand, o.speed), true));
+      // A first answer changed at once: stored, then superseded by the answer after the same path.
+      const wrong = decide(plan, d, step, pick(o.rand, alternatives), o.rand, o.bias);
+      steps.push({ stepId: step.id, kind: step.kind, decided: wrong.decided, answer: wrong.answer, superseded: true, seconds: stepSeconds(plan, step, o.rand, o.speed) });
     }
-    steps.push(walked(step, c, stepSeconds(plan, step, o.rand, o.speed), false));
-    at = c.branch.to;
+    const taken = decide(plan, d, step, branch, o.rand, o.bias);
+    const walked: WalkedStep = { stepId: step.id, kind: step.kind, decided: taken.decided, answer: taken.answer, superseded: false, seconds: stepSeconds(plan, step, o.rand, o.speed) };
+    if (isEnding(step)) return { steps, end: walked, endingStepId: step.id, ending: step.kind === 'finding' ? 'finding' : 'handoff' };
+    steps.push(walked);
+    d.keep = [...d.keep, pathRow(d.keep.length + 1, taken.answer, taken.decided)];
+    d.walk = taken.walk;
   }
-  return { steps, endingStepId: at, ending: 'handoff' };
+  return { steps, end: null, endingStepId: steps[steps.length - 1]?.stepId ?? plan.doc.start, ending: 'handoff' };
 }
 
-function walked(step: Step, c: Choice, seconds: number, superseded: boolean): WalkedStep {
-  const handle = c.branch.handle;
+/** The stored path row the next decision follows, as the step endpoint keeps it. */
+function pathRow(seq: number, a: StepAnswer, decided: DecidedStep): PathRow {
   return {
-    stepId: step.id,
-    kind: step.kind,
-    title: step.title,
-    value: c.value,
-    verdict: c.verdict,
-    bandId: handle.startsWith('band:') ? handle.slice(5) : handle === 'borderline' ? 'borderline' : null,
-    answerId: handle.startsWith('answer:') ? handle.slice(7) : null,
-    nextStepId: c.branch.to,
-    superseded,
-    seconds,
+    id: String(seq), seq, stepId: a.stepId, next: decided.next, entered: decided.entered,
+    lead: a.leadEntered ?? null, answerId: decided.answerId, acknowledged: a.acknowledged ?? false,
   };
 }

@@ -1,17 +1,15 @@
-import { createHash, randomUUID } from 'node:crypto';
+import { randomUUID } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
-import { procedureDocumentSchema } from '@shared/schema/procedure';
-import { formatReading } from '@shared/measure/format';
-import { meterUncertainty } from '@shared/measure/verdict';
-import { QUANTITY_INFO, type Quantity } from '@shared/measure/quantities';
+import { upgradeProcedure } from '@shared/schema/upgrade';
 import type { AppDeps } from '../deps';
 import { hashPassword } from '../lib/passwords';
-import { planWalks, rng, pick, walkTowardsFault, type Walk, type WalkPlan } from './history-walk';
+import { planWalks, rng, pick, walkTowardsFault, type Walk, type WalkedStep, type WalkPlan } from './history-walk';
 import { insertRows } from './history-insert';
-import { shownOf } from '../services/diagnosis-decide';
+import { payloadHash } from '../services/diagnosis-step.service';
 
 // Invented demo history over the published procedures of a shop: every name, reading and time
-// here is made up for the demo. Bulk inserts (unnest batches) make 100 000 diagnoses take minutes.
+// here is made up for the demo. Every answer is decided by the live step code (history-walk.ts)
+// and stored with the same columns; bulk inserts (unnest batches) make 100 000 diagnoses take minutes.
 
 export interface HistoryOptions {
   diagnoses: number;
@@ -27,7 +25,7 @@ export interface HistoryOptions {
 
 export interface HistoryResult { diagnoses: number; steps: number; vehicles: number; technicians: number }
 
-interface Version { id: string; plan: WalkPlan; quantities: Map<string, Quantity>; shown: Map<string, Record<string, unknown>> }
+interface Version { id: string; plan: WalkPlan }
 interface Tech { id: string; speed: number; bias: number }
 
 const APPRENTICES = [
@@ -47,14 +45,10 @@ async function loadVersions(deps: Pick<AppDeps, 'sequelize'>, shopId: string): P
     { bind: [shopId], type: QueryTypes.SELECT },
   );
   return rows.map((r) => {
-    const doc = procedureDocumentSchema.parse(r.document);
-    const quantities = new Map(doc.steps.flatMap((s) => (s.kind === 'reading' || s.kind === 'formula' ? [[s.id, s.quantity] as const] : [])));
-    // What Bench stores as shown, less the long instructions and safety text (the version has them).
-    const shown = new Map(doc.steps.map((st) => {
-      const { instructions: _i, safety: _s, ...rest } = shownOf(st);
-      return [st.id, rest] as const;
-    }));
-    return { id: r.id, plan: planWalks(doc), quantities, shown };
+    // Read as the step endpoint reads a pinned version (loadPinnedVersion), so both decide alike.
+    const up = upgradeProcedure(r.document);
+    if (!up.ok) throw new Error(`Published version ${r.id} cannot be read: ${up.message}`);
+    return { id: r.id, plan: planWalks(up.document) };
   }).filter((v) => v.plan.endings.length > 0); // a version with no reachable ending cannot be walked
 }
 
@@ -112,50 +106,48 @@ export function scheduleVisits(count: number, vehicleIds: readonly string[], day
 }
 
 
+/**
+ * A step row as the step endpoint writes it, from the same decision. The seeder leaves out the
+ * step's long instructions and safety text (the pinned version holds them), which keeps a 100 000
+ * diagnosis history to a sensible size; nothing Debrief reads depends on them.
+ */
+function stepRow(diagnosisId: string, seq: number, s: WalkedStep, started: number, answered: number): unknown[] {
+  const { instructions: _i, safety: _s, ...shown } = s.decided.shown;
+  const d = s.decided;
+  const hash = payloadHash({ diagnosisId, seq, ...s.answer });
+  return [randomUUID(), diagnosisId, seq, s.stepId, s.kind, JSON.stringify(shown), d.entered, d.value, d.unit, d.verdict,
+    d.bandId, d.answerId, d.next, s.superseded, new Date(started).toISOString(), new Date(answered).toISOString(), hash];
+}
+
 function build(walk: Walk, version: Version, tech: Tech, vehicleId: string, at: number, rand: () => number, now: number): { d: unknown[]; s: unknown[][] } {
   const id = randomUUID();
   const steps: unknown[][] = [];
   let t = at;
   const abandonAt = rand() < 0.06 && walk.steps.length > 1 ? 1 + Math.floor(rand() * (walk.steps.length - 1)) : -1;
-  const kept = abandonAt >= 0 ? walk.steps.slice(0, abandonAt) : walk.steps;
-  kept.forEach((s, i) => {
+  const kept = abandonAt >= 0 || !walk.end ? walk.steps.slice(0, abandonAt >= 0 ? abandonAt : undefined) : walk.steps;
+  for (const s of kept) {
     const started = t;
     t += s.seconds * 1000;
-    const q = version.quantities.get(s.stepId);
-    const entered = s.value === null ? null : q ? formatReading({ value: s.value, quantity: q }) : String(s.value);
-    const hash = createHash('sha256').update(`${id}|${s.stepId}|${entered}|${s.bandId}|${s.answerId}`).digest('hex');
-    steps.push([randomUUID(), id, i + 1, s.stepId, s.kind, JSON.stringify(shownFor(version, s)), entered, s.value, q ? QUANTITY_INFO[q].base : null, s.verdict,
-      s.bandId, s.answerId, s.nextStepId, s.superseded, new Date(started).toISOString(), new Date(t).toISOString(), hash]);
+    steps.push(stepRow(id, steps.length + 1, s, started, t));
     t += (5 + rand() * 25) * 1000;
-  });
-  if (abandonAt < 0) {
+  }
+  const ended = abandonAt < 0 && walk.end;
+  if (ended) {
     // Bench records the ending too: the Finding or Hand-off screen answered with its outcome.
-    const end = version.plan.byId.get(walk.endingStepId)!;
     const started = t;
     t += (30 + rand() * 90) * 1000;
-    const hash = createHash('sha256').update(`${id}|${end.id}|end`).digest('hex');
-    steps.push([randomUUID(), id, steps.length + 1, end.id, end.kind, JSON.stringify(version.shown.get(end.id)), null, null, null, null,
-      null, null, null, false, new Date(started).toISOString(), new Date(t).toISOString(), hash]);
+    steps.push(stepRow(id, steps.length + 1, walk.end!, started, t));
   }
   const recent = now - at < 36 * 3_600_000;
-  const status = abandonAt >= 0 ? (recent ? 'active' : 'abandoned') : walk.ending === 'finding' ? 'finished' : 'handed_off';
-  const ending = abandonAt >= 0 ? walk.steps[abandonAt]!.stepId : walk.endingStepId;
-  const ended = status === 'finished' || status === 'handed_off' ? new Date(t).toISOString() : null;
+  const status = !ended ? (recent ? 'active' : 'abandoned') : walk.ending === 'finding' ? 'finished' : 'handed_off';
+  const ending = !ended ? (walk.steps[abandonAt]?.stepId ?? walk.endingStepId) : walk.endingStepId;
+  const endedAt = status === 'finished' || status === 'handed_off' ? new Date(t).toISOString() : null;
   const outcome = status === 'finished' ? { labourMinutes: Math.round((t - at) / 60000) } : status === 'handed_off' ? { reason: 'Needs a senior technician' } : null;
   return {
     d: [id, version.id, vehicleId, tech.id, status, status === 'active' ? null : ending, outcome && JSON.stringify(outcome),
-      new Date(at).toISOString(), ended, new Date(t).toISOString()],
+      new Date(at).toISOString(), endedAt, new Date(t).toISOString()],
     s: steps,
   };
-}
-
-/** The stored screen of a step, with the meter's uncertainty interval around a reading. */
-function shownFor(version: Version, s: Walk['steps'][number]): Record<string, unknown> {
-  const base = version.shown.get(s.stepId) ?? { title: s.title };
-  const step = version.plan.byId.get(s.stepId);
-  if (s.value === null || step?.kind !== 'reading' || !step.meter) return base;
-  const U = meterUncertainty(s.value, step.meter).expanded;
-  return { ...base, interval: { low: s.value - U, high: s.value + U } };
 }
 
 /**

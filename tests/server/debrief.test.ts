@@ -6,6 +6,8 @@ import { seedHistory, seedHistoryIfEmpty } from '../../server/seeders/history';
 import { lintProcedure } from '@shared/engine/lint';
 import { findCheckChains } from '@shared/engine/advisor';
 import { procedureDocumentSchema } from '@shared/schema';
+import type { ProcedureWalk } from '@shared/engine/walk';
+import { decideStep, type PathRow } from '../../server/services/diagnosis-decide';
 
 let env: TestEnv;
 let trainer: Client;
@@ -190,6 +192,36 @@ describe('turning the advisor proposal into a draft', () => {
   it('an order that is not a chain of the version gets 400', async () => {
     await q(`DELETE FROM procedure_versions WHERE procedure_id = $1 AND status = 'draft'`, [ids.procedureId]);
     await lead.post('/api/debrief/advisor/drafts', { versionId: ids.versionId, order: ['exciter', 'prepare'] }).expect(400);
+  });
+});
+
+describe('the demo history is what Bench writes', () => {
+  // Debrief's tests run on the seeded history, so each of its rows must be what the step endpoint
+  // stores for the same answers: replaying every path through the endpoint's decideStep gives the
+  // same verdict, branch, value, next step and route.
+  it('every answered step of every seeded diagnosis replays through the live decision to the row stored', async () => {
+    const rows = await q(`SELECT s.diagnosis_id, s.step_id, s.entered, s.answer_id, s.value, s.unit, s.verdict, s.band_id, s.next_step_id, s.shown, v.document
+      FROM diagnosis_steps s JOIN diagnoses d ON d.id = s.diagnosis_id JOIN procedure_versions v ON v.id = d.procedure_version_id
+      WHERE s.shop_id = $1 AND NOT s.superseded ORDER BY s.diagnosis_id, s.seq`, [shopId]);
+    expect(rows.length).toBeGreaterThan(500);
+    let walk: ProcedureWalk | undefined;
+    let keep: PathRow[] = [];
+    const mismatches: string[] = [];
+    rows.forEach((r, i) => {
+      if (i === 0 || rows[i - 1].diagnosis_id !== r.diagnosis_id) { walk = undefined; keep = []; }
+      const doc = procedureDocumentSchema.parse(r.document);
+      const answer = { stepId: r.step_id, entered: r.entered ?? undefined, answerId: r.answer_id ?? undefined, acknowledged: r.shown.acknowledged === true };
+      const out = decideStep(doc, new Map(doc.steps.map((st) => [st.id, st])), keep, answer, walk);
+      const d = out.decided;
+      const want = [d.verdict, d.bandId, d.next, d.unit, d.value === null ? null : Number(d.value.toPrecision(9)), (d.shown as { route?: string }).route ?? null];
+      const got = [r.verdict, r.band_id, r.next_step_id, r.unit, r.value === null ? null : Number(Number(r.value).toPrecision(9)), r.shown.route ?? null];
+      if (JSON.stringify(want) !== JSON.stringify(got)) mismatches.push(`${r.step_id}: stored ${JSON.stringify(got)}, decided ${JSON.stringify(want)}`);
+      walk = out.walk;
+      keep = [...keep, { id: String(i), seq: keep.length + 1, stepId: r.step_id, next: d.next, entered: d.entered, lead: null, answerId: d.answerId, acknowledged: answer.acknowledged }];
+    });
+    expect(mismatches.slice(0, 5)).toEqual([]);
+    // and the history does reach the branches Debrief counts: a borderline plug cap on the demo weak-spark procedure
+    expect(rows.some((r) => r.step_id === 'capOhms' && r.band_id === 'borderline')).toBe(true);
   });
 });
 
