@@ -12,6 +12,7 @@ export PG_ROOT=$PWD/.tmp/pg-test
 bash scripts/pg.sh reset
 API_DB=$(APP_DB=sparkwright_api bash scripts/pg.sh start --throwaway) || exit 1
 E2E_DB=$(APP_DB=sparkwright_e2e bash scripts/pg.sh start --throwaway) || exit 1
+PROD_DB=$(APP_DB=sparkwright_prod bash scripts/pg.sh start --throwaway) || exit 1
 trap 'bash scripts/pg.sh stop' EXIT
 export NODE_ENV=test
 status=0
@@ -22,7 +23,7 @@ step "lint" npx eslint . --max-warnings=0
 DATABASE_URL=$API_DB npx tsx scripts/migrate.ts || status=1
 step "unit and API tests" env DATABASE_URL="$API_DB" npx vitest run --reporter=default --reporter=json --outputFile=.tmp/reports/vitest.json
 step "client build" env NODE_ENV=production TMPDIR="$PWD/.tmp/build" npx vite build --logLevel warn
-step "bundle budgets" env REPORT=.tmp/reports/budgets.json npx vitest run --config vitest.build.config.ts --reporter=default --reporter=json --outputFile=.tmp/reports/budgets.json
+step "bundle budgets and the production start" env REPORT=.tmp/reports/budgets.json PROD_DATABASE_URL="$PROD_DB" npx vitest run --config vitest.build.config.ts --reporter=default --reporter=json --outputFile=.tmp/reports/budgets.json
 export E2E_DATABASE_URL=$E2E_DB E2E_PORT=$(free_port 3900)
 step "end-to-end tests" env PLAYWRIGHT_JSON_OUTPUT_NAME=.tmp/reports/e2e.json npx playwright test --reporter=list,json
 node scripts/summarize.mjs .tmp/reports || status=1

@@ -16,13 +16,17 @@ export function createSequelize(databaseUrl: string, opts: { logging?: boolean; 
 
 type MigrationFn = (ctx: { context: ReturnType<Sequelize['getQueryInterface']> }) => Promise<void>;
 
-/** umzug over server/migrations/*.ts; ESM needs each file loaded with import(fileURL). */
+/**
+ * umzug over server/migrations/*.ts (or the compiled *.js of dist-server/); ESM needs each file
+ * loaded with import(fileURL). A migration keeps its source name (.ts) either way, so a database
+ * migrated by `npm start` and one migrated by the compiled server agree on what has run.
+ */
 export function createMigrator(sequelize: Sequelize) {
   return new Umzug({
     migrations: {
       glob: ['migrations/*.{ts,js}', { cwd: here, ignore: ['**/*.d.ts'] }],
       resolve: ({ name, path: file, context }) => ({
-        name,
+        name: name.replace(/\.js$/, '.ts'),
         up: async () => {
           const mod = (await import(pathToFileURL(file!).href)) as { up: MigrationFn };
           return mod.up({ context });

@@ -4,8 +4,8 @@ import type { AppDeps } from './deps';
 import { createSequelize, createMigrator } from './db';
 import { createMailer } from './services/mailer';
 import { createObjectStore } from './services/storage';
-import { startFakeSmtp, type FakeSmtp } from './dev/fake-smtp';
-import { startFakeS3, type FakeS3 } from './dev/fake-s3';
+import type { FakeSmtp } from './dev/fake-smtp';
+import type { FakeS3 } from './dev/fake-s3';
 import { initModels } from './models';
 import { startCacheBus } from './lib/cache-bus';
 
@@ -33,6 +33,8 @@ export async function startRuntime(config: Config, opts: { migrate?: boolean } =
   let smtpPort = config.SMTP_PORT;
   let s3Endpoint = config.S3_ENDPOINT;
   if (config.LOCAL_FAKES) {
+    // Loaded only when asked for: the fakes' packages are dev dependencies, absent in production.
+    const [{ startFakeSmtp }, { startFakeS3 }] = await Promise.all([import('./dev/fake-smtp'), import('./dev/fake-s3')]);
     smtp = await startFakeSmtp({ port: config.SMTP_PORT, dir: path.join(config.DATA_DIR, 'mail') });
     smtpPort = smtp.port;
     s3 = await startFakeS3({ dir: path.join(config.DATA_DIR, 's3'), bucket: config.S3_BUCKET });
