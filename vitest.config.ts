@@ -12,7 +12,7 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: 'unit', include: ['tests/shared/**/*.test.ts', 'tests/client/**/*.test.ts', 'content/**/*.test.ts'], environment: 'node' },
+        test: { name: 'unit', include: ['tests/shared/**/*.test.ts', 'tests/client/**/*.test.ts', 'tests/lint/**/*.test.ts', 'content/**/*.test.ts'], testTimeout: 20_000, environment: 'node' },
       },
       {
         resolve: { alias },

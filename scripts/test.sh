@@ -18,7 +18,7 @@ export NODE_ENV=test
 status=0
 step() { say "$1"; shift; "$@" || status=1; }
 
-step "type check" npx tsc -p tsconfig.json
+step "type check" npm run --silent typecheck
 step "lint" npx eslint . --max-warnings=0
 DATABASE_URL=$API_DB npx tsx scripts/migrate.ts || status=1
 step "unit and API tests" env DATABASE_URL="$API_DB" npx vitest run --reporter=default --reporter=json --outputFile=.tmp/reports/vitest.json
