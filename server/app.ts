@@ -9,6 +9,7 @@ import { existsSync } from 'node:fs';
 import { csrfSync } from 'csrf-sync';
 import type { AppDeps } from './deps';
 import { initModels } from './models';
+import { pgClientTimeouts } from './db';
 import { configurePassport } from './auth/passport';
 import { CachedSessionStore } from './auth/session-store';
 import { requestId } from './middleware/request-id';
@@ -57,7 +58,10 @@ export function createApp(deps: AppDeps, first?: (app: Express) => void): Expres
   if (hasClient) app.use(express.static(dist, { index: false, maxAge: '1h', setHeaders: noCacheForShell }));
 
   const PgStore = connectPgSimple(session);
-  const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 10 });
+  const pool = new pg.Pool({ connectionString: deps.config.DATABASE_URL, max: 10, ...pgClientTimeouts });
+  // An idle connection dropped by the database (a restart, a failover) is an event, not a crash:
+  // the pool discards it and the next request opens a new one.
+  pool.on('error', (err) => deps.log('a session store connection was lost; it will reconnect on the next request', err));
   app.locals.sessionPool = pool;
   app.use(
     session({

@@ -5,11 +5,37 @@ import path from 'node:path';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
 
+/**
+ * How long the app waits on PostgreSQL before it gives up and answers 503 with Retry-After
+ * (server/middleware/error-handler.ts) instead of hanging: a new connection, a free pooled
+ * connection, and one statement. A stopped or restarting database refuses at once, so those
+ * answers come in milliseconds; these bounds are for one that stops answering without refusing.
+ * They are not tighter because a burst of sign-ins (bcrypt on the event loop) can delay a healthy
+ * connection's handshake by a few seconds on a busy machine, and that must not turn into a 503.
+ * Shared by Sequelize, the session store's pool and the cache bus.
+ */
+export const DB_TIMEOUTS = {
+  connectMs: 5000,
+  acquireMs: 5000,
+  // long enough for the heaviest Debrief query on a big group; a stuck one frees its connection
+  statementMs: 60_000,
+} as const;
+
+/** node-postgres settings for every connection the app opens (Sequelize's and the session store's). */
+export const pgClientTimeouts = {
+  connectionTimeoutMillis: DB_TIMEOUTS.connectMs,
+  statement_timeout: DB_TIMEOUTS.statementMs,
+  // the client's own limit, for a server that stopped answering without closing the connection
+  query_timeout: DB_TIMEOUTS.statementMs + 5000,
+  keepAlive: true,
+};
+
 export function createSequelize(databaseUrl: string, opts: { logging?: boolean; pool?: number } = {}): Sequelize {
   return new Sequelize(databaseUrl, {
     dialect: 'postgres',
     logging: opts.logging ? (sql) => console.log(sql) : false,
-    pool: { max: opts.pool ?? 10, min: 0, idle: 10_000 },
+    pool: { max: opts.pool ?? 10, min: 0, idle: 10_000, acquire: DB_TIMEOUTS.acquireMs },
+    dialectOptions: pgClientTimeouts,
     define: { underscored: true },
   });
 }
