@@ -3,6 +3,30 @@ import { AppError } from '../lib/errors';
 
 interface HttpishError { status?: number; statusCode?: number; type?: string; code?: string; expose?: boolean }
 
+/** Seconds a client is told to wait when the database is out (the phone's outbox retries sooner anyway). */
+export const RETRY_AFTER_SECONDS = 5;
+
+// PostgreSQL's own codes for "not now": shutting down, starting up, too many connections,
+// connection failures (class 08), a statement cancelled by its timeout.
+const PG_UNAVAILABLE = new Set(['57P01', '57P02', '57P03', '53300', '08000', '08001', '08003', '08004', '08006', '57014']);
+const NET_UNAVAILABLE = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH']);
+// What node-postgres and Sequelize's pool say when a connection ends, cannot open or cannot be had in time.
+const UNAVAILABLE_MESSAGE = /Connection terminated|not queryable|timeout exceeded when trying to connect|Query read timeout|Connection timed out/i;
+const SEQUELIZE_UNAVAILABLE = new Set([
+  'SequelizeConnectionError', 'SequelizeConnectionRefusedError', 'SequelizeConnectionTimedOutError',
+  'SequelizeConnectionAcquireTimeoutError', 'SequelizeHostNotReachableError', 'SequelizeHostNotFoundError',
+]);
+
+/** True when the error means the database cannot be reached just now (Sequelize wraps pg's error in `parent`). */
+function databaseUnavailable(err: unknown, depth = 0): boolean {
+  if (!err || typeof err !== 'object' || depth > 3) return false;
+  const e = err as { name?: string; code?: string; message?: string; parent?: unknown; original?: unknown; cause?: unknown };
+  if (e.name && SEQUELIZE_UNAVAILABLE.has(e.name)) return true;
+  if (e.code && (PG_UNAVAILABLE.has(e.code) || NET_UNAVAILABLE.has(e.code))) return true;
+  if (typeof e.message === 'string' && UNAVAILABLE_MESSAGE.test(e.message)) return true;
+  return [e.parent, e.original, e.cause].some((inner) => inner !== err && databaseUnavailable(inner, depth + 1));
+}
+
 /** Maps errors thrown by body parsers, CSRF, multer and services onto one envelope. */
 function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
@@ -21,6 +45,9 @@ function toAppError(err: unknown): AppError {
     return new AppError(tooBig ? 413 : 400, tooBig ? 'too_large' : 'invalid_upload',
       tooBig ? 'That file is too large. Photos up to 8 MB are accepted; take it again at a lower resolution.' : 'The upload could not be read. Attach one photo and try again.');
   }
+  if (databaseUnavailable(err)) {
+    return new AppError(503, 'unavailable', `The database is not answering just now. Try again in ${RETRY_AFTER_SECONDS} seconds; the Bench keeps unsent answers on the phone and sends them by itself.`);
+  }
   const status = e?.status ?? e?.statusCode;
   if (status && status >= 400 && status < 500) {
     return new AppError(status, 'bad_request', 'The request could not be understood. Check what was sent and try again.');
@@ -31,8 +58,11 @@ function toAppError(err: unknown): AppError {
 export function errorHandler(log: (msg: string, err: unknown) => void): ErrorRequestHandler {
   return (err, req, res, _next) => {
     const appErr = toAppError(err);
-    if (appErr.status >= 500) log(`request ${req.requestId} ${req.method} ${req.originalUrl} failed`, err);
+    // an outage answers every request with 503: one line each, not a stack trace each
+    if (appErr.status === 503) log(`request ${req.requestId} ${req.method} ${req.originalUrl}: database unavailable (${(err as Error)?.message})`, undefined);
+    else if (appErr.status >= 500) log(`request ${req.requestId} ${req.method} ${req.originalUrl} failed`, err);
     if (res.headersSent) return;
+    if (appErr.status === 503) res.setHeader('Retry-After', String(RETRY_AFTER_SECONDS));
     res.status(appErr.status).json({
       error: {
         code: appErr.code,
