@@ -1,4 +1,5 @@
 import pg from 'pg';
+import { pgClientTimeouts } from '../db';
 
 // Per-process caches (sessions, members' roles) forget an entry at once in the process that
 // changed it; this bus tells every other app server on the same database too, through
@@ -6,6 +7,8 @@ import pg from 'pg';
 // lifetimes still bound how long another server trusts a stale entry.
 
 const CHANNEL = 'sparkwright_cache';
+/** Between attempts to listen again after the connection dropped (each lost one resets the caches). */
+const RECONNECT_MS = 2000;
 
 export type EvictionKind = 'session' | 'user-sessions' | 'membership';
 
@@ -43,8 +46,9 @@ function deliver(payload: string | undefined): void {
 export async function startCacheBus(databaseUrl: string, log: (msg: string, err?: unknown) => void): Promise<() => Promise<void>> {
   const listener: Listener = { client: null, closed: false };
   let retry: NodeJS.Timeout | null = null;
+  let connectedBefore = false;
   const connect = async (): Promise<void> => {
-    const client = new pg.Client({ connectionString: databaseUrl, application_name: 'sparkwright-cache-bus' });
+    const client = new pg.Client({ connectionString: databaseUrl, application_name: 'sparkwright-cache-bus', ...pgClientTimeouts });
     client.on('notification', (m) => deliver(m.payload));
     const lost = (err?: unknown) => {
       if (listener.closed || listener.client !== client) return;
@@ -58,10 +62,13 @@ export async function startCacheBus(databaseUrl: string, log: (msg: string, err?
     client.on('end', () => lost());
     await client.connect();
     await client.query(`LISTEN ${CHANNEL}`);
+    // Back after a loss: what was cached while nobody listened may have missed an eviction.
+    if (connectedBefore) for (const reset of resets) reset();
     listener.client = client;
+    connectedBefore = true;
   };
   const later = () => {
-    retry = setTimeout(() => void connect().catch((err: unknown) => { log('the cache bus could not reconnect yet', err); later(); }), 5000);
+    retry = setTimeout(() => void connect().catch((err: unknown) => { log('the cache bus could not reconnect yet', err); later(); }), RECONNECT_MS);
   };
   await connect();
   listeners.add(listener);
