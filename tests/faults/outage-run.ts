@@ -1,0 +1,256 @@
+import 'fake-indexeddb/auto';
+import pg from 'pg';
+import { startBody, loopStep, publishLoopProcedure, Session, type Answer, type LoopWorld } from './bench-session';
+import { startAppProcess, throwawayDatabase, sleep, type AppProcess, type Database } from './processes';
+import { phoneAgainst, type Phone } from './phone';
+
+// A database outage under load, end to end: one real app server process, steady reads and step
+// writes from several signed-in technicians and one phone running the real Bench outbox, then
+// PostgreSQL stopped (fast shutdown) for a while and started again. The short run is part of the
+// API suite (tests/server/outage.test.ts); `npm run verify:outage` is the long one.
+
+export interface OutageOptions {
+  /** how long PostgreSQL stays down */
+  outageMs: number;
+  readers: number;
+  writers: number;
+  /** load before the stop, and after the start */
+  warmMs: number;
+  afterMs: number;
+  name: string;
+  say?: (line: string) => void;
+}
+
+interface Sent { at: number; done: number; kind: 'read' | 'write'; answer: Answer | null; error?: string }
+
+export interface OutageFigures {
+  /** from the stop command to the database accepting connections again */
+  outageSeconds: number;
+  requests: number;
+  unavailable: number;
+  /** answers that were neither 2xx nor a proper 503, and requests that got no answer at all */
+  unexpected: string[];
+  /** 503 answers without the error envelope or without Retry-After */
+  improper: string[];
+  /** the slowest answer to a request sent while the database was down */
+  slowestWhileDownMs: number;
+  /** from the database accepting connections to the first stored step */
+  recoveryMs: number;
+  failuresAfterRecovery: number;
+  acknowledgedWrites: number;
+  acknowledgedLost: number;
+  phone: { queued: number; answeredWhileDown: number; stored: number; extra: number; inOrder: boolean; leftOnPhone: number };
+  signInWhileDown: number;
+  limiterAfter: number[];
+  freshSignInAfter: number;
+  cacheBusBackMs: number;
+  signOutHeardMs: number;
+  appExited: number | string | null;
+}
+
+/** Runs the whole scenario on a database and an app server of its own; always cleans up. */
+export async function runOutage(o: OutageOptions): Promise<OutageFigures> {
+  const say = o.say ?? (() => undefined);
+  const db = await throwawayDatabase(o.name);
+  let app: AppProcess | null = null;
+  let phone: Phone | null = null;
+  try {
+    // a low sign-in limit, so that the limiter's own PostgreSQL table is seen to work afterwards
+    app = await startAppProcess(db.url, { LOGIN_RATE_LIMIT: '3' });
+    const world = await publishLoopProcedure(db.url);
+    const figures = await underLoad(o, db, app, world, say, (p) => { phone = p; });
+    return figures;
+  } catch (e) {
+    if (app) say(`app server output:\n${app.output().slice(-4000)}`);
+    throw e;
+  } finally {
+    (phone as Phone | null)?.restore();
+    await app?.stop();
+    await db.remove();
+  }
+}
+
+async function underLoad(o: OutageOptions, db: Database, app: AppProcess, world: LoopWorld, say: (l: string) => void, keepPhone: (p: Phone) => void): Promise<OutageFigures> {
+  const base = app.base;
+  const lanes = await Promise.all(Array.from({ length: o.readers + o.writers }, async () => {
+    const s = await Session.signIn(base, 'tech@larkspur.test');
+    const start = startBody(world);
+    const res = await s.post(base, '/api/diagnoses', start);
+    if (res.status !== 201) throw new Error(`a diagnosis did not start: ${res.status} ${JSON.stringify(res.body)}`);
+    return { s, diagnosisId: start.id };
+  }));
+  const phone = await phoneAgainst(base, await Session.signIn(base, 'tech@larkspur.test'), world);
+  keepPhone(phone);
+
+  const sent: Sent[] = [];
+  const acknowledged: string[] = [];
+  let running = true;
+  const record = async (kind: Sent['kind'], go: () => Promise<Answer>): Promise<Answer | null> => {
+    const at = performance.now();
+    try {
+      const answer = await go();
+      sent.push({ at, done: performance.now(), kind, answer });
+      return answer;
+    } catch (e) {
+      sent.push({ at, done: performance.now(), kind, answer: null, error: (e as Error).message });
+      return null;
+    }
+  };
+  const reader = async (lane: (typeof lanes)[number]) => {
+    while (running) {
+      await record('read', () => lane.s.get(base, `/api/diagnoses/${lane.diagnosisId}`));
+      await sleep(40);
+    }
+  };
+  // A writer sends the same step again until it is acknowledged, as a phone would.
+  const writer = async (lane: (typeof lanes)[number]) => {
+    let after: string | null = null;
+    let body = loopStep(after);
+    while (running) {
+      const answer = await record('write', () => lane.s.post(base, `/api/diagnoses/${lane.diagnosisId}/steps`, body));
+      if (answer && answer.status < 300) {
+        acknowledged.push(body.id);
+        after = body.id;
+        body = loopStep(after);
+      }
+      await sleep(40);
+    }
+  };
+  const phoneLoop = async () => {
+    while (running) {
+      await phone.answer();
+      await sleep(250);
+    }
+  };
+  const load = [
+    ...lanes.slice(0, o.readers).map(reader),
+    ...lanes.slice(o.readers).map(writer),
+    phoneLoop(),
+  ];
+
+  await sleep(o.warmMs);
+  say(`load running; stopping PostgreSQL for ${o.outageMs / 1000} s`);
+  const stopAt = performance.now();
+  const answeredBefore = phone.queued.length;
+  await db.stop();
+  const signInWhileDown = await wrongSignIn(base);
+  await sleep(Math.max(0, o.outageMs - (performance.now() - stopAt)));
+  await db.start();
+  const upAt = performance.now();
+  const answeredWhileDown = phone.queued.length - answeredBefore;
+  say(`PostgreSQL is back after ${((upAt - stopAt) / 1000).toFixed(1)} s`);
+  await sleep(o.afterMs);
+  running = false;
+  await Promise.all(load);
+  const leftOnPhone = await phone.drain(15_000);
+
+  const check = new pg.Client({ connectionString: db.url });
+  await check.connect();
+  try {
+    const stored = await check.query<{ id: string }>('SELECT id FROM diagnosis_steps WHERE id = ANY($1::uuid[])', [acknowledged]);
+    const phoneRows = await check.query<{ id: string }>('SELECT id FROM diagnosis_steps WHERE diagnosis_id = $1 ORDER BY seq', [phone.diagnosisId]);
+    const survival = await afterTheOutage(base, check, upAt);
+    const firstWrite = sent.find((s) => s.kind === 'write' && s.at >= upAt && s.answer && s.answer.status < 300);
+    const recoveredAt = firstWrite?.done ?? Number.POSITIVE_INFINITY;
+    const whileDown = sent.filter((s) => s.at >= stopAt && s.at < upAt);
+    const phoneIds = phoneRows.rows.map((r) => r.id);
+    return {
+      outageSeconds: (upAt - stopAt) / 1000,
+      requests: sent.length,
+      unavailable: sent.filter((s) => s.answer?.status === 503).length,
+      unexpected: sent.filter((s) => !s.answer || (s.answer.status >= 300 && s.answer.status !== 503))
+        .map((s) => (s.answer ? `${s.kind} ${s.answer.status} ${JSON.stringify(s.answer.body).slice(0, 200)}` : `${s.kind}: no answer (${s.error})`)),
+      improper: sent.filter((s) => s.answer?.status === 503).filter((s) => !proper503(s.answer!)).map((s) => JSON.stringify(s.answer!.body).slice(0, 200)),
+      slowestWhileDownMs: Math.max(0, ...whileDown.map((s) => s.done - s.at)),
+      recoveryMs: recoveredAt - upAt,
+      failuresAfterRecovery: sent.filter((s) => s.at > recoveredAt && (!s.answer || s.answer.status >= 300)).length,
+      acknowledgedWrites: acknowledged.length,
+      acknowledgedLost: acknowledged.length - stored.rowCount!,
+      phone: {
+        queued: phone.queued.length,
+        answeredWhileDown,
+        stored: phoneIds.filter((id) => phone.queued.includes(id)).length,
+        extra: phoneIds.filter((id) => !phone.queued.includes(id)).length,
+        inOrder: JSON.stringify(phoneIds) === JSON.stringify(phone.queued),
+        leftOnPhone,
+      },
+      signInWhileDown,
+      ...survival,
+      appExited: app.exited(),
+    };
+  } finally {
+    await check.end();
+  }
+}
+
+/** A sign-in with a wrong password: 401 normally, 429 past the limit, 503 while the database is out. */
+async function wrongSignIn(base: string): Promise<number> {
+  return Session.signIn(base, 'lead@larkspur.test', 'not-the-password').then(() => 200, (e: Error) => Number(/failed: (\d+)/.exec(e.message)?.[1] ?? 0));
+}
+
+function proper503(a: Answer): boolean {
+  const e = (a.body as { error?: { code?: unknown; message?: unknown; requestId?: unknown } }).error;
+  return !!e && typeof e.code === 'string' && typeof e.message === 'string' && typeof e.requestId === 'string'
+    && Number(a.headers.get('retry-after')) > 0;
+}
+
+/** The session store, the sign-in limiter and the cache bus, once the database is back. */
+async function afterTheOutage(base: string, check: pg.Client, upAt: number) {
+  const fresh = await Session.signIn(base, 'trainer@larkspur.test').then(() => 200, (e: Error) => Number(/failed: (\d+)/.exec(e.message)?.[1] ?? 0));
+  const limiterAfter: number[] = [];
+  for (let i = 0; i < 4; i++) limiterAfter.push(await wrongSignIn(base));
+  let cacheBusBackMs = Number.POSITIVE_INFINITY;
+  for (let i = 0; i < 150; i++) {
+    const { rows } = await check.query(`SELECT 1 FROM pg_stat_activity WHERE application_name = 'sparkwright-cache-bus'`);
+    if (rows.length) { cacheBusBackMs = performance.now() - upAt; break; }
+    await sleep(100);
+  }
+  // signed out by "another server": the row deleted and the eviction announced on the bus
+  const s = await Session.signIn(base, 'author@larkspur.test');
+  await s.get(base, '/api/auth/me');
+  const sid = decodeURIComponent(s.cookie.slice('sw.sid='.length)).replace(/^s:/, '').split('.')[0]!;
+  await check.query('DELETE FROM "session" WHERE sid = $1', [sid]);
+  const t0 = performance.now();
+  await check.query('SELECT pg_notify($1, $2)', ['sparkwright_cache', `session:${sid}`]);
+  let signOutHeardMs = Number.POSITIVE_INFINITY;
+  for (let i = 0; i < 30; i++) {
+    if ((await s.get(base, '/api/auth/me')).status === 401) { signOutHeardMs = performance.now() - t0; break; }
+    await sleep(50);
+  }
+  return { limiterAfter, freshSignInAfter: fresh, cacheBusBackMs, signOutHeardMs };
+}
+
+/** The figures as a few lines for a person. */
+export function describeFigures(f: OutageFigures): string {
+  return [
+    `outage: PostgreSQL down ${f.outageSeconds.toFixed(1)} s under load (${f.requests} requests)`,
+    `503 answers: ${f.unavailable} (improper ${f.improper.length}); other failures: ${f.unexpected.length}; slowest answer while down: ${f.slowestWhileDownMs.toFixed(0)} ms`,
+    `recovery: first stored step ${f.recoveryMs.toFixed(0)} ms after the database was back; failures after that: ${f.failuresAfterRecovery}`,
+    `acknowledged writes: ${f.acknowledgedWrites}; acknowledged writes lost: ${f.acknowledgedLost}`,
+    `phone outbox: ${f.phone.queued} steps answered (${f.phone.answeredWhileDown} while the database was down), ${f.phone.stored} stored once each, ${f.phone.extra} extra, in order: ${f.phone.inOrder ? 'yes' : 'no'}, left on the phone: ${f.phone.leftOnPhone}`,
+    `sign-in while down: ${f.signInWhileDown}; after: fresh sign-in ${f.freshSignInAfter}, wrong passwords ${f.limiterAfter.join(' ')}`,
+    `cache bus back ${f.cacheBusBackMs.toFixed(0)} ms after the database; a sign-out elsewhere heard in ${f.signOutHeardMs.toFixed(0)} ms`,
+    `app process exited: ${f.appExited === null ? 'no' : f.appExited}`,
+  ].join('\n');
+}
+
+/** The claims of the outage check, each as a sentence when it does not hold (empty: all hold). */
+export function brokenClaims(f: OutageFigures): string[] {
+  const claims: [boolean, string][] = [
+    [f.appExited === null, `the app process exited (${f.appExited})`],
+    [f.unavailable > 0, 'no request was answered 503 while the database was down'],
+    [f.improper.length === 0, `${f.improper.length} answers 503 lacked the error envelope or Retry-After`],
+    [f.unexpected.length === 0, `${f.unexpected.length} requests failed otherwise than 503: ${f.unexpected.slice(0, 3).join('; ')}`],
+    [f.slowestWhileDownMs < 2000, `an answer while the database was down took ${f.slowestWhileDownMs.toFixed(0)} ms (over 2 s)`],
+    [f.recoveryMs <= 5000, `serving again took ${f.recoveryMs.toFixed(0)} ms after the database was back (over 5 s)`],
+    [f.failuresAfterRecovery === 0, `${f.failuresAfterRecovery} requests failed after the recovery`],
+    [f.acknowledgedLost === 0, `${f.acknowledgedLost} acknowledged writes are not in the database`],
+    [f.phone.answeredWhileDown > 0 && f.phone.leftOnPhone === 0 && f.phone.stored === f.phone.queued && f.phone.extra === 0 && f.phone.inOrder,
+      `the phone's outbox did not deliver every step exactly once in order (${JSON.stringify(f.phone)})`],
+    [f.signInWhileDown === 503, `a sign-in while the database was down answered ${f.signInWhileDown}, not 503`],
+    [f.freshSignInAfter === 200, `a sign-in after the outage answered ${f.freshSignInAfter}`],
+    [JSON.stringify(f.limiterAfter) === JSON.stringify([401, 401, 401, 429]), `the sign-in limiter after the outage answered ${f.limiterAfter.join(' ')}, not 401 401 401 429`],
+    [f.signOutHeardMs < 1000, `a sign-out announced on the cache bus after the outage took ${f.signOutHeardMs} ms to be heard`],
+  ];
+  return claims.filter(([holds]) => !holds).map(([, sentence]) => sentence);
+}
