@@ -15,6 +15,13 @@ const realFetch = globalThis.fetch;
 export class Session {
   private constructor(public cookie: string, public csrf: string) {}
 
+  /** A visitor with a session cookie and its CSRF token but no sign-in (forgot password, reset). */
+  static async anonymous(base: string): Promise<Session> {
+    const first = await realFetch(`${base}/api/auth/csrf`);
+    if (first.status !== 200) throw new Error(`the CSRF token could not be fetched: ${first.status}`);
+    return new Session(first.headers.get('set-cookie')!.split(';')[0]!, ((await first.json()) as { token: string }).token);
+  }
+
   static async signIn(base: string, email: string, password = FAULTS_PASSWORD): Promise<Session> {
     const first = await realFetch(`${base}/api/auth/csrf`);
     if (first.status !== 200) throw new Error(`sign-in of ${email} failed: ${first.status} ${await first.text()}`);
