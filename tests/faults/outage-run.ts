@@ -138,6 +138,7 @@ async function underLoad(o: OutageOptions, db: Database, app: AppProcess, world:
   await db.start();
   const upAt = performance.now();
   const answeredWhileDown = phone.queued.length - answeredBefore;
+  const cacheBusBack = cacheBusBackAfter(db.url, upAt);
   say(`PostgreSQL is back after ${((upAt - stopAt) / 1000).toFixed(1)} s`);
   await sleep(o.afterMs);
   running = false;
@@ -149,7 +150,7 @@ async function underLoad(o: OutageOptions, db: Database, app: AppProcess, world:
   try {
     const stored = await check.query<{ id: string }>('SELECT id FROM diagnosis_steps WHERE id = ANY($1::uuid[])', [acknowledged]);
     const phoneRows = await check.query<{ id: string }>('SELECT id FROM diagnosis_steps WHERE diagnosis_id = $1 ORDER BY seq', [phone.diagnosisId]);
-    const survival = await afterTheOutage(base, check, upAt);
+    const survival = await afterTheOutage(base, check);
     const firstWrite = sent.find((s) => s.kind === 'write' && s.at >= upAt && s.answer && s.answer.status < 300);
     const recoveredAt = firstWrite?.done ?? Number.POSITIVE_INFINITY;
     const whileDown = sent.filter((s) => s.at >= stopAt && s.at < upAt);
@@ -176,6 +177,7 @@ async function underLoad(o: OutageOptions, db: Database, app: AppProcess, world:
       },
       signInWhileDown,
       ...survival,
+      cacheBusBackMs: await cacheBusBack,
       appExited: app.exited(),
     };
   } finally {
@@ -195,16 +197,10 @@ function proper503(a: Answer): boolean {
 }
 
 /** The session store, the sign-in limiter and the cache bus, once the database is back. */
-async function afterTheOutage(base: string, check: pg.Client, upAt: number) {
+async function afterTheOutage(base: string, check: pg.Client) {
   const fresh = await Session.signIn(base, 'trainer@larkspur.test').then(() => 200, (e: Error) => Number(/failed: (\d+)/.exec(e.message)?.[1] ?? 0));
   const limiterAfter: number[] = [];
   for (let i = 0; i < 4; i++) limiterAfter.push(await wrongSignIn(base));
-  let cacheBusBackMs = Number.POSITIVE_INFINITY;
-  for (let i = 0; i < 150; i++) {
-    const { rows } = await check.query(`SELECT 1 FROM pg_stat_activity WHERE application_name = 'sparkwright-cache-bus'`);
-    if (rows.length) { cacheBusBackMs = performance.now() - upAt; break; }
-    await sleep(100);
-  }
   // signed out by "another server": the row deleted and the eviction announced on the bus
   const s = await Session.signIn(base, 'author@larkspur.test');
   await s.get(base, '/api/auth/me');
@@ -217,7 +213,24 @@ async function afterTheOutage(base: string, check: pg.Client, upAt: number) {
     if ((await s.get(base, '/api/auth/me')).status === 401) { signOutHeardMs = performance.now() - t0; break; }
     await sleep(50);
   }
-  return { limiterAfter, freshSignInAfter: fresh, cacheBusBackMs, signOutHeardMs };
+  return { limiterAfter, freshSignInAfter: fresh, signOutHeardMs };
+}
+
+/** Milliseconds from `since` until the app's cache bus is listening again (Infinity after 20 s). */
+async function cacheBusBackAfter(url: string, since: number): Promise<number> {
+  const c = new pg.Client({ connectionString: url });
+  c.on('error', () => undefined);
+  await c.connect();
+  try {
+    while (performance.now() - since < 20_000) {
+      const { rows } = await c.query(`SELECT 1 FROM pg_stat_activity WHERE application_name = 'sparkwright-cache-bus'`);
+      if (rows.length) return performance.now() - since;
+      await sleep(100);
+    }
+    return Number.POSITIVE_INFINITY;
+  } finally {
+    await c.end();
+  }
 }
 
 /** The figures as a few lines for a person. */
