@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import { createSequelize } from '../../server/db';
 import { initModels, Meter, Procedure, ProcedureVersion, Shop, Vehicle } from '../../server/models';
-import { doc } from '../shared/fixtures';
+import { doc, ohmsReading } from '../shared/fixtures';
 import { FAULTS_PASSWORD } from './processes';
 
 // A signed-in member talking to real app servers over HTTP (fetch), and a procedure whose one
@@ -67,14 +67,7 @@ function parseBody(text: string): Record<string, unknown> {
 }
 
 /** Illustrative limits for a test, not service data: 100–200 Ω, every band back to the same step. */
-const loopDoc = doc([{
-  id: 'exciter', kind: 'reading', title: 'Exciter winding', quantity: 'resistance', unit: 'Ω', limits: { kind: 'range', min: 100, max: 200 },
-  bands: [
-    { id: 'low', label: 'Below', upper: { value: 100, inclusive: false }, next: 'exciter' },
-    { id: 'ok', label: 'Within', lower: { value: 100, inclusive: true }, upper: { value: 200, inclusive: true }, next: 'exciter' },
-    { id: 'high', label: 'Above', lower: { value: 200, inclusive: false }, next: 'exciter' },
-  ],
-}]);
+const loopDoc = doc([ohmsReading('exciter', 100, 200, { low: 'exciter', ok: 'exciter', high: 'exciter' })]);
 
 export interface LoopWorld { versionId: string; vehicleId: string; meterId: string }
 

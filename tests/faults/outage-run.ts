@@ -1,6 +1,7 @@
 import 'fake-indexeddb/auto';
 import pg from 'pg';
-import { startBody, loopStep, publishLoopProcedure, Session, type Answer, type LoopWorld } from './bench-session';
+import { publishLoopProcedure, Session, type Answer, type LoopWorld } from './bench-session';
+import { startLane, startLoad, type Sent } from './load';
 import { startAppProcess, throwawayDatabase, sleep, type AppProcess, type Database } from './processes';
 import { phoneAgainst, type Phone } from './phone';
 
@@ -21,7 +22,6 @@ export interface OutageOptions {
   say?: (line: string) => void;
 }
 
-interface Sent { at: number; done: number; kind: 'read' | 'write'; answer: Answer | null; error?: string }
 
 export interface OutageFigures {
   /** from the stop command to the database accepting connections again */
@@ -72,61 +72,10 @@ export async function runOutage(o: OutageOptions): Promise<OutageFigures> {
 
 async function underLoad(o: OutageOptions, db: Database, app: AppProcess, world: LoopWorld, say: (l: string) => void, keepPhone: (p: Phone) => void): Promise<OutageFigures> {
   const base = app.base;
-  const lanes = await Promise.all(Array.from({ length: o.readers + o.writers }, async () => {
-    const s = await Session.signIn(base, 'tech@larkspur.test');
-    const start = startBody(world);
-    const res = await s.post(base, '/api/diagnoses', start);
-    if (res.status !== 201) throw new Error(`a diagnosis did not start: ${res.status} ${JSON.stringify(res.body)}`);
-    return { s, diagnosisId: start.id };
-  }));
+  const lanes = await Promise.all(Array.from({ length: o.readers + o.writers }, () => startLane(base, world)));
   const phone = await phoneAgainst(base, await Session.signIn(base, 'tech@larkspur.test'), world);
   keepPhone(phone);
-
-  const sent: Sent[] = [];
-  const acknowledged: string[] = [];
-  let running = true;
-  const record = async (kind: Sent['kind'], go: () => Promise<Answer>): Promise<Answer | null> => {
-    const at = performance.now();
-    try {
-      const answer = await go();
-      sent.push({ at, done: performance.now(), kind, answer });
-      return answer;
-    } catch (e) {
-      sent.push({ at, done: performance.now(), kind, answer: null, error: (e as Error).message });
-      return null;
-    }
-  };
-  const reader = async (lane: (typeof lanes)[number]) => {
-    while (running) {
-      await record('read', () => lane.s.get(base, `/api/diagnoses/${lane.diagnosisId}`));
-      await sleep(40);
-    }
-  };
-  // A writer sends the same step again until it is acknowledged, as a phone would.
-  const writer = async (lane: (typeof lanes)[number]) => {
-    let after: string | null = null;
-    let body = loopStep(after);
-    while (running) {
-      const answer = await record('write', () => lane.s.post(base, `/api/diagnoses/${lane.diagnosisId}/steps`, body));
-      if (answer && answer.status < 300) {
-        acknowledged.push(body.id);
-        after = body.id;
-        body = loopStep(after);
-      }
-      await sleep(40);
-    }
-  };
-  const phoneLoop = async () => {
-    while (running) {
-      await phone.answer();
-      await sleep(250);
-    }
-  };
-  const load = [
-    ...lanes.slice(0, o.readers).map(reader),
-    ...lanes.slice(o.readers).map(writer),
-    phoneLoop(),
-  ];
+  const load = startLoad(base, { readers: lanes.slice(0, o.readers), writers: lanes.slice(o.readers), phone });
 
   await sleep(o.warmMs);
   say(`load running; stopping PostgreSQL for ${o.outageMs / 1000} s`);
@@ -141,32 +90,20 @@ async function underLoad(o: OutageOptions, db: Database, app: AppProcess, world:
   const cacheBusBack = cacheBusBackAfter(db.url, upAt);
   say(`PostgreSQL is back after ${((upAt - stopAt) / 1000).toFixed(1)} s`);
   await sleep(o.afterMs);
-  running = false;
-  await Promise.all(load);
+  await load.stop();
   const leftOnPhone = await phone.drain(15_000);
 
   const check = new pg.Client({ connectionString: db.url });
   await check.connect();
   try {
-    const stored = await check.query<{ id: string }>('SELECT id FROM diagnosis_steps WHERE id = ANY($1::uuid[])', [acknowledged]);
+    const stored = await check.query<{ id: string }>('SELECT id FROM diagnosis_steps WHERE id = ANY($1::uuid[])', [load.acknowledged]);
     const phoneRows = await check.query<{ id: string }>('SELECT id FROM diagnosis_steps WHERE diagnosis_id = $1 ORDER BY seq', [phone.diagnosisId]);
-    const survival = await afterTheOutage(base, check);
-    const firstWrite = sent.find((s) => s.kind === 'write' && s.at >= upAt && s.answer && s.answer.status < 300);
-    const recoveredAt = firstWrite?.done ?? Number.POSITIVE_INFINITY;
-    const whileDown = sent.filter((s) => s.at >= stopAt && s.at < upAt);
     const phoneIds = phoneRows.rows.map((r) => r.id);
     return {
       outageSeconds: (upAt - stopAt) / 1000,
-      requests: sent.length,
-      unavailable: sent.filter((s) => s.answer?.status === 503).length,
-      unexpected: sent.filter((s) => !s.answer || (s.answer.status >= 300 && s.answer.status !== 503))
-        .map((s) => (s.answer ? `${s.kind} ${s.answer.status} ${JSON.stringify(s.answer.body).slice(0, 200)}` : `${s.kind}: no answer (${s.error})`)),
-      improper: sent.filter((s) => s.answer?.status === 503).filter((s) => !proper503(s.answer!)).map((s) => JSON.stringify(s.answer!.body).slice(0, 200)),
-      slowestWhileDownMs: Math.max(0, ...whileDown.map((s) => s.done - s.at)),
-      recoveryMs: recoveredAt - upAt,
-      failuresAfterRecovery: sent.filter((s) => s.at > recoveredAt && (!s.answer || s.answer.status >= 300)).length,
-      acknowledgedWrites: acknowledged.length,
-      acknowledgedLost: acknowledged.length - stored.rowCount!,
+      ...tally(load.sent, stopAt, upAt),
+      acknowledgedWrites: load.acknowledged.length,
+      acknowledgedLost: load.acknowledged.length - stored.rowCount!,
       phone: {
         queued: phone.queued.length,
         answeredWhileDown,
@@ -176,13 +113,30 @@ async function underLoad(o: OutageOptions, db: Database, app: AppProcess, world:
         leftOnPhone,
       },
       signInWhileDown,
-      ...survival,
+      ...(await afterTheOutage(base, check)),
       cacheBusBackMs: await cacheBusBack,
       appExited: app.exited(),
     };
   } finally {
     await check.end();
   }
+}
+
+/** What the answers say: 503s and their form, anything else, the slowest while down, the recovery. */
+function tally(sent: Sent[], stopAt: number, upAt: number) {
+  const firstWrite = sent.find((s) => s.kind === 'write' && s.at >= upAt && s.answer && s.answer.status < 300);
+  const recoveredAt = firstWrite?.done ?? Number.POSITIVE_INFINITY;
+  const whileDown = sent.filter((s) => s.at >= stopAt && s.at < upAt);
+  return {
+    requests: sent.length,
+    unavailable: sent.filter((s) => s.answer?.status === 503).length,
+    unexpected: sent.filter((s) => !s.answer || (s.answer.status >= 300 && s.answer.status !== 503))
+      .map((s) => (s.answer ? `${s.kind} ${s.answer.status} ${JSON.stringify(s.answer.body).slice(0, 200)}` : `${s.kind}: no answer (${s.error})`)),
+    improper: sent.filter((s) => s.answer?.status === 503 && !proper503(s.answer)).map((s) => JSON.stringify(s.answer!.body).slice(0, 200)),
+    slowestWhileDownMs: Math.max(0, ...whileDown.map((s) => s.done - s.at)),
+    recoveryMs: recoveredAt - upAt,
+    failuresAfterRecovery: sent.filter((s) => s.at > recoveredAt && (!s.answer || s.answer.status >= 300)).length,
+  };
 }
 
 /** A sign-in with a wrong password: 401 normally, 429 past the limit, 503 while the database is out. */
