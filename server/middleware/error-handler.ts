@@ -9,9 +9,10 @@ export const RETRY_AFTER_SECONDS = 5;
 // PostgreSQL's own codes for "not now": shutting down, starting up, too many connections,
 // connection failures (class 08), a statement cancelled by its timeout.
 const PG_UNAVAILABLE = new Set(['57P01', '57P02', '57P03', '53300', '08000', '08001', '08003', '08004', '08006', '57014']);
+// (a refused or dropped socket may also be the object store's: the words below cover both)
 const NET_UNAVAILABLE = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH']);
 // What node-postgres and Sequelize's pool say when a connection ends, cannot open or cannot be had in time.
-const UNAVAILABLE_MESSAGE = /Connection terminated|not queryable|timeout exceeded when trying to connect|Query read timeout|Connection timed out/i;
+const UNAVAILABLE_MESSAGE = /Connection terminated|not queryable|timeout exceeded when trying to connect|timeout expired|Query read timeout|Connection timed out/i;
 const SEQUELIZE_UNAVAILABLE = new Set([
   'SequelizeConnectionError', 'SequelizeConnectionRefusedError', 'SequelizeConnectionTimedOutError',
   'SequelizeConnectionAcquireTimeoutError', 'SequelizeHostNotReachableError', 'SequelizeHostNotFoundError',
@@ -46,7 +47,7 @@ function toAppError(err: unknown): AppError {
       tooBig ? 'That file is too large. Photos up to 8 MB are accepted; take it again at a lower resolution.' : 'The upload could not be read. Attach one photo and try again.');
   }
   if (databaseUnavailable(err)) {
-    return new AppError(503, 'unavailable', `The database is not answering just now. Try again in ${RETRY_AFTER_SECONDS} seconds; the Bench keeps unsent answers on the phone and sends them by itself.`);
+    return new AppError(503, 'unavailable', `Sparkwright cannot reach its database or photo store just now. Try again in ${RETRY_AFTER_SECONDS} seconds; the Bench keeps unsent answers on the phone and sends them by itself.`);
   }
   const status = e?.status ?? e?.statusCode;
   if (status && status >= 400 && status < 500) {
@@ -59,7 +60,7 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
   return (err, req, res, _next) => {
     const appErr = toAppError(err);
     // an outage answers every request with 503: one line each, not a stack trace each
-    if (appErr.status === 503) log(`request ${req.requestId} ${req.method} ${req.originalUrl}: database unavailable (${(err as Error)?.message})`, undefined);
+    if (appErr.status === 503) log(`request ${req.requestId} ${req.method} ${req.originalUrl}: unavailable (${(err as Error)?.message})`, undefined);
     else if (appErr.status >= 500) log(`request ${req.requestId} ${req.method} ${req.originalUrl} failed`, err);
     if (res.headersSent) return;
     if (appErr.status === 503) res.setHeader('Retry-After', String(RETRY_AFTER_SECONDS));
