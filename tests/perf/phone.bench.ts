@@ -1,0 +1,162 @@
+// npm run perf:phone — the tap-to-next-step time of the Bench on a phone. Starts the built app on
+// its own port against the throwaway database of scripts/perf-phone.sh, then walks the demo
+// "No spark" procedure to its Finding in Debian's Chromium on a 360×780 touch viewport, with CDP
+// CPU throttling 1× and 4× (4× stands in for a mid-range phone). Each transition is timed in the
+// page, from the tap's event time to the first frame painted after the next step's title appears.
+// Targets (issue 11): p95 ≤ 16 ms at 1×, ≤ 50 ms at 4×.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { chromium, devices, type Page } from '@playwright/test';
+
+const PORT = Number(process.env.PERF_PORT ?? 3950);
+const BASE = `http://127.0.0.1:${PORT}`;
+const PASSWORD = 'spark-demo-2026';
+const RUNS = Number(process.env.PERF_RUNS ?? 3);
+const LAUNCH_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+
+async function startServer(): Promise<ChildProcess> {
+  const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+    env: {
+      ...process.env, NODE_ENV: 'test', PORT: String(PORT), HOST: '127.0.0.1', APP_URL: BASE, DATA_DIR: '.tmp/perf-phone-data',
+      DEMO_PASSWORD: PASSWORD, DEMO_HISTORY: process.env.DEMO_HISTORY ?? '300', LOGIN_RATE_LIMIT: '500', SERVE_CLIENT: '1', LOCAL_FAKES: '1',
+    },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  for (let i = 0; i < 600; i++) {
+    if (server.exitCode !== null) throw new Error(`the app stopped with code ${server.exitCode}`);
+    try {
+      if ((await fetch(`${BASE}/api/health`)).ok) return server;
+    } catch { /* not listening yet */ }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  server.kill('SIGTERM');
+  throw new Error('the app did not answer /api/health within 150 s');
+}
+
+// The in-page code is kept as source text: tsx would wrap named functions in a helper that the
+// page does not have.
+
+/** Installed in every page: remembers the time of the last tap (the event's own timestamp). */
+const TAP_CLOCK = `(() => {
+  const mark = (e) => { window.__tapAt = e.timeStamp; };
+  document.addEventListener('touchstart', mark, { capture: true, passive: true });
+  document.addEventListener('pointerdown', mark, { capture: true, passive: true });
+})()`;
+
+const TITLE = "(document.querySelector('#step-title, #ending-title')?.textContent ?? '')";
+
+/** In the page: resolves with ms from the last tap to the frame painted after the title differs from `before`. */
+const UNTIL_NEXT_TITLE = (before: string) => `new Promise((resolve) => {
+  const before = ${JSON.stringify(before)};
+  const changed = () => { const t = ${TITLE}; return t !== before && t !== ''; };
+  // The rAF callback runs just before the frame is painted; the message after it, once it is.
+  const done = () => requestAnimationFrame(() => {
+    const ch = new MessageChannel();
+    ch.port1.onmessage = () => resolve(performance.now() - window.__tapAt);
+    ch.port2.postMessage(null);
+  });
+  if (changed()) { done(); return; }
+  const mo = new MutationObserver(() => { if (changed()) { mo.disconnect(); done(); } });
+  mo.observe(document.body, { subtree: true, childList: true, characterData: true });
+})`;
+
+async function timedTap(page: Page, name: string, tap: () => Promise<void>): Promise<{ name: string; ms: number }> {
+  const before = await page.evaluate<string>(TITLE);
+  const next = page.evaluate<number>(UNTIL_NEXT_TITLE(before));
+  await tap();
+  return { name, ms: await next };
+}
+
+type Move = { step: string; answer: (page: Page) => Promise<void>; tap: (page: Page) => Promise<void> };
+const button = (name: string) => (page: Page) => page.getByRole('button', { name, exact: true }).tap();
+const none = async () => undefined;
+const acknowledge = (page: Page) => page.getByRole('button', { name: 'I have read this and will keep clear' }).tap();
+const type = (text: string) => async (page: Page) => {
+  await page.getByLabel(/^Reading \(/).fill(text);
+  await page.getByTestId('verdict').waitFor();
+};
+const save = button('Save reading and continue');
+
+// The demo "No spark" walk of the e2e test, to the stator Finding (the Formula is computed on the way).
+const WALK: Move[] = [
+  { step: 'Prepare the machine → Done', answer: none, tap: button('Done') },
+  { step: 'Spark test → No spark', answer: acknowledge, tap: button('No spark') },
+  { step: 'Isolate the stop circuit → Done', answer: none, tap: button('Done') },
+  { step: 'Spark retest → Still no spark', answer: acknowledge, tap: button('Still no spark') },
+  { step: 'Cap resistance 4K7 → Save', answer: async (p) => { await p.getByRole('button', { name: /^Letters keypad/ }).tap(); await type('4K7')(p); }, tap: save },
+  { step: 'Ground 0,4 Ω → Save', answer: type('0,4'), tap: save },
+  { step: 'Engine temperature 22 °C → Save', answer: type('22'), tap: save },
+  { step: 'Coil primary 0.5 Ω → Save', answer: type('0.5'), tap: save },
+  { step: 'Coil secondary 3.5k → Save (+ Formula)', answer: type('3.5k'), tap: save },
+  { step: 'Exciter 2.1k → Save → Finding', answer: type('2.1k'), tap: save },
+];
+
+async function oneWalk(page: Page, vehicleId: string): Promise<{ start: number; moves: { name: string; ms: number }[] }> {
+  await page.goto(`/bench/start?vehicle=${vehicleId}&procedure=no-spark`);
+  await page.getByLabel("Complaint in the customer's words").fill('It kicks over but never fires');
+  const startButton = page.getByRole('button', { name: 'Start the diagnosis' });
+  await startButton.waitFor();
+  await page.waitForFunction("!document.querySelector('button[type=submit]')?.disabled");
+  const start = await timedTap(page, 'start', () => startButton.tap());
+  const moves = [];
+  for (const m of WALK) {
+    await m.answer(page);
+    moves.push(await timedTap(page, m.step, () => m.tap(page)));
+  }
+  return { start: start.ms, moves };
+}
+
+const quantile = (xs: number[], q: number) => {
+  // Hyndman & Fan type 7 (linear between order statistics), as elsewhere in the project.
+  const s = [...xs].sort((a, b) => a - b);
+  const h = (s.length - 1) * q;
+  const lo = Math.floor(h);
+  return s[lo]! + (h - lo) * ((s[Math.min(lo + 1, s.length - 1)] ?? s[lo]!) - s[lo]!);
+};
+const ms = (x: number) => `${x.toFixed(1).padStart(6)} ms`;
+
+async function main() {
+  const server = await startServer();
+  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: LAUNCH_ARGS });
+  try {
+    const context = await browser.newContext({ ...devices['Pixel 5'], viewport: { width: 360, height: 780 }, hasTouch: true, isMobile: true, baseURL: BASE });
+    await context.addInitScript({ content: TAP_CLOCK });
+    const page = await context.newPage();
+    await page.goto('/sign-in');
+    await page.getByLabel('E-mail').fill('tech@larkspur.test');
+    await page.getByLabel('Password').fill(PASSWORD);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByRole('navigation', { name: 'Areas' }).waitFor();
+    const vehicles = await (await page.request.get('/api/vehicles')).json() as { id: string; label: string }[];
+    const vehicle = vehicles.find((v) => v.label === 'W-01') ?? vehicles[0]!;
+    const cdp = await context.newCDPSession(page);
+    await oneWalk(page, vehicle.id); // warm-up: caches, service worker, the Bench chunk
+    for (const rate of [1, 4]) {
+      await cdp.send('Emulation.setCPUThrottlingRate', { rate });
+      const all: number[] = [];
+      const starts: number[] = [];
+      console.log(`\nCPU throttling ${rate}× — ${RUNS} walks of "No spark" (${WALK.length} transitions each)`);
+      for (let run = 1; run <= RUNS; run++) {
+        const { start, moves } = await oneWalk(page, vehicle.id);
+        starts.push(start);
+        all.push(...moves.map((m) => m.ms));
+        console.log(`  walk ${run}: "Start the diagnosis" → first step ${ms(start)}`);
+        for (const m of moves) console.log(`    ${m.name.padEnd(44)} ${ms(m.ms)}`);
+      }
+      const target = rate === 1 ? 16 : 50;
+      const p95 = quantile(all, 0.95);
+      console.log(`  transitions: median ${ms(quantile(all, 0.5))}, p95 ${ms(p95)}, max ${ms(Math.max(...all))} (target p95 ≤ ${target} ms: ${p95 <= target ? 'met' : 'MISSED'})`);
+      console.log(`  start → first step: median ${ms(quantile(starts, 0.5))}`);
+    }
+    await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
+  } finally {
+    await browser.close();
+    const stopped = new Promise((r) => server.once('exit', r));
+    server.kill('SIGTERM');
+    await stopped; // before the script's trap stops PostgreSQL
+  }
+}
+
+main().catch((e: unknown) => {
+  console.error(e instanceof Error ? e.stack ?? e.message : e);
+  process.exit(1);
+});
