@@ -13,5 +13,5 @@ trap 'bash scripts/pg.sh stop' EXIT
 npx tsx scripts/migrate.ts
 say "building the client (production)"
 mkdir -p .tmp/build
-NODE_ENV=production TMPDIR="$PWD/.tmp/build" npx vite build --logLevel warn
+NODE_ENV=production TMPDIR="$PWD/.tmp/build" npx vite build --logLevel warn ${PERF_PROFILE:+--minify false}
 PERF_PORT=$(free_port 3950) npx tsx tests/perf/phone.bench.ts

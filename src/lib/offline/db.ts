@@ -109,17 +109,19 @@ export async function listLocalDiagnoses(): Promise<LocalDiagnosis[]> {
 export async function commitLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
   const db = await benchDb();
   const tx = db.transaction(['diagnoses', 'outbox', 'aside'], 'readwrite');
-  await tx.objectStore('diagnoses').put({ ...diagnosis, updatedAt: new Date().toISOString() });
   const now = new Date().toISOString();
-  const setAside = (await tx.objectStore('aside').index('byDiagnosis').count(diagnosis.id)) > 0;
-  for (const message of messages) {
-    const item = { diagnosisId: diagnosis.id, message, createdAt: now };
-    const seq = await tx.objectStore('outbox').add(item);
+  // Every request goes out at once, without waiting for the one before: on a phone each wait is a
+  // trip through the event loop, and the technician waits for the whole transaction.
+  const puts: Promise<unknown>[] = [tx.objectStore('diagnoses').put({ ...diagnosis, updatedAt: now })];
+  const items = messages.map((message) => ({ diagnosisId: diagnosis.id, message, createdAt: now }));
+  const seqs = items.map((item) => tx.objectStore('outbox').add(item));
+  const asideCount = messages.length ? tx.objectStore('aside').index('byDiagnosis').count(diagnosis.id) : Promise.resolve(0);
+  if ((await asideCount) > 0) {
     // Set aside: the outbox's key generator still gives the seq, so the two stores never clash.
-    if (setAside) {
-      await tx.objectStore('outbox').delete(seq);
-      await tx.objectStore('aside').put({ ...item, seq, setAsideAt: now });
+    for (const [i, item] of items.entries()) {
+      const seq = await seqs[i]!;
+      puts.push(tx.objectStore('outbox').delete(seq), tx.objectStore('aside').put({ ...item, seq, setAsideAt: now }));
     }
   }
-  await tx.done;
+  await Promise.all([...puts, ...seqs, tx.done]);
 }

@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from 'react';
+import { useRef, useState, type ReactNode } from 'react';
 import type { Step } from '@shared/schema/procedure';
 import type { StepView } from '@shared/engine/step-view';
 import type { FormulaValue } from '@shared/measure/formula';
@@ -86,14 +86,18 @@ export function StepCard({ view, step, values, remeasure, remeasured, extras, on
   const [acknowledged, setAcknowledged] = useState(!view.mustAcknowledge);
   const [reading, setReading] = useState<ReadingValue>({ entered: '', leadEntered: '', valid: false });
   const [note, setNote] = useState('');
-  const [busy, setBusy] = useState(false);
-  const locked = !acknowledged || busy;
+  // A second tap while the answer is being kept is ignored. A ref, not state: re-rendering the card
+  // to disable it would cost a frame on a slow phone just before the next step replaces it.
+  const sending = useRef(false);
+  const locked = !acknowledged;
   const send: Send = async (a) => {
-    setBusy(true);
+    if (sending.current) return;
+    sending.current = true;
+    performance.mark('bench:answer');
     try {
       await onAnswer({ stepId: view.id, note, acknowledged: view.mustAcknowledge ? acknowledged : false, ...a });
     } finally {
-      setBusy(false);
+      sending.current = false;
     }
   };
   return (

@@ -50,15 +50,26 @@ function answerRow(a: Answer, path: Walked['path'], at: number, now: string): Lo
   };
 }
 
+/**
+ * Runs `fn` once the frame with the next step has been painted: sending starts with IndexedDB
+ * reads and a request, which would otherwise delay that frame on a slow phone.
+ */
+function afterNextPaint(fn: () => void): void {
+  if (typeof requestAnimationFrame === 'undefined') { setTimeout(fn, 0); return; }
+  requestAnimationFrame(() => setTimeout(fn, 0));
+}
+
 /** A diagnosis read from and written to the phone; the outbox carries each change to the server. */
 export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
   const { diagnosis, setDiagnosis, doc, error, loading } = useStoredDiagnosis(id);
   const walked = useMemo(() => (doc && diagnosis ? walkRows(doc, diagnosis.rows) : null), [doc, diagnosis]);
 
   const save = useCallback(async (next: LocalDiagnosis, messages: OutboxMessage[]) => {
-    await commitLocal(next, messages);
+    performance.mark('bench:keep');
+    await commitLocal(next, messages); // on the phone before the next step shows
+    performance.mark('bench:kept');
     setDiagnosis(next);
-    void flushOutbox();
+    afterNextPaint(() => void flushOutbox());
   }, [setDiagnosis]);
 
   const answer = useCallback(async (a: Answer, index?: number) => {
