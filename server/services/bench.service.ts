@@ -3,6 +3,7 @@ import { upgradeProcedure } from '@shared/schema/upgrade';
 import type { ProcedureDocument, Step } from '@shared/schema/procedure';
 import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
+import { handleOf } from './debrief-analytics.service';
 
 export interface PinnedVersion {
   id: string;
@@ -80,5 +81,24 @@ export async function getVersionForBench(sequelize: Sequelize, ctx: ShopContext,
     if (!versionId) throw notFound('A published procedure with that name');
   }
   const v = await loadPinnedVersion(sequelize, ctx.shopId, versionId);
-  return { id: v.id, procedureId: v.procedureId, slug: v.slug, title: v.title, number: v.number, document: v.document };
+  const branchCounts = await branchCountsOf(sequelize, ctx.shopId, v.id);
+  return { id: v.id, procedureId: v.procedureId, slug: v.slug, title: v.title, number: v.number, document: v.document, branchCounts };
+}
+
+/**
+ * How often each branch of a version was taken in this shop's ended diagnoses (step id → handle →
+ * count), so the phone's "to go" estimate follows the shop's history; empty without history.
+ */
+async function branchCountsOf(sequelize: Sequelize, shopId: string, versionId: string): Promise<Record<string, Record<string, number>>> {
+  const rows = await sequelize.query<{ step_id: string; band_id: string | null; answer_id: string | null; n: string }>(
+    `SELECT ds.step_id, ds.band_id, ds.answer_id, count(*) AS n
+       FROM diagnosis_steps ds JOIN diagnoses d ON d.id = ds.diagnosis_id AND d.shop_id = ds.shop_id
+      WHERE d.shop_id = :shopId AND d.procedure_version_id = :versionId AND d.status IN ('finished', 'handed_off')
+        AND NOT ds.superseded AND ds.kind IN ('reading', 'observation', 'formula')
+      GROUP BY 1, 2, 3`,
+    { replacements: { shopId, versionId }, type: QueryTypes.SELECT },
+  );
+  const counts: Record<string, Record<string, number>> = {};
+  for (const r of rows) (counts[r.step_id] ??= {})[handleOf(r.band_id, r.answer_id)] = Number(r.n);
+  return counts;
 }

@@ -11,7 +11,7 @@ export interface PathRow {
   entered: string | null; lead: string | null; answerId: string | null; acknowledged: boolean;
 }
 
-export interface StepAnswer { stepId: string; entered?: string | undefined; leadEntered?: string | undefined; answerId?: string | undefined; acknowledged?: boolean | undefined }
+export interface StepAnswer { stepId: string; entered?: string | undefined; leadEntered?: string | undefined; answerId?: string | undefined; acknowledged?: boolean | undefined; acknowledgedAt?: string | undefined }
 
 export interface DecidedStep {
   entered: string | null; value: number | null; unit: string | null; verdict: Verdict | null;
@@ -78,7 +78,7 @@ function decided(step: Step, p: PathStep, answer: StepAnswer): DecidedStep {
       ...shownOf(step),
       ...(p.decision ? { interval: p.decision.interval, corrections: p.decision.corrections, route: p.outcome } : {}),
       ...(answer.leadEntered ? { leadEntered: answer.leadEntered } : {}),
-      ...(answer.acknowledged ? { acknowledged: true } : {}),
+      ...(answer.acknowledged ? { acknowledged: true, ...(answer.acknowledgedAt ? { acknowledgedAt: answer.acknowledgedAt } : {}) } : {}),
     },
   };
 }

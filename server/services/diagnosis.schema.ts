@@ -48,6 +48,8 @@ export const StepInput = z.object({
   note: z.string().max(4000).default(''),
   /** The technician acknowledged the step's DANGER note. */
   acknowledged: z.boolean().default(false),
+  /** When the DANGER note was acknowledged, as the phone's clock said; kept in the record. */
+  acknowledgedAt: isoTime.optional(),
   outcome: z.union([FindingOutcomeInput, HandoffOutcomeInput]).optional(),
   startedAt: isoTime,
   answeredAt: isoTime,

@@ -4,3 +4,4 @@ export { stepView, limitsView, type StepView, type LimitsView } from './step-vie
 export { pathFigures, stepMinutes, type PathFigures, type PathFiguresOptions, type PathLength, type StepFigures, type BranchCounts } from './figures';
 export { buildGraph, type ProcedureGraph } from './graph';
 export { reach, canReachEnding, stronglyConnected, depthFirst, dominators, isBackEdge, type Components, type Dominators, type DepthFirst } from './algorithms';
+export { stepsToGo, branchJump, type StepsToGo } from './progress';

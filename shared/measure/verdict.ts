@@ -158,3 +158,16 @@ export function decideReading<Q extends Quantity = Quantity>(input: DecideInput)
     },
   };
 }
+
+/**
+ * The limit that the meter's uncertainty interval straddles while the reading alone decided the
+ * verdict (simple acceptance, ILAC-G8:09/2019 §4.2.1), or null. The screen then says why the
+ * verdict stands and offers a re-measure. Example: limits 4–6 kΩ, 5.95 kΩ read ± 0.057 kΩ → 6000.
+ */
+export function limitCrossedBy(d: Pick<ReadingDecision, 'interval' | 'verdict' | 'limits'>): number | null {
+  if (!d.interval || d.verdict === null || d.verdict === 'borderline-low' || d.verdict === 'borderline-high') return null;
+  for (const limit of [d.limits.min, d.limits.max]) {
+    if (limit !== undefined && d.interval.low < limit && d.interval.high > limit) return limit;
+  }
+  return null;
+}

@@ -118,6 +118,9 @@ test('a technician runs "No spark" to a Finding, partly without signal, and the 
   await reading(page, 'Reading (°C)', '22', /22 °C/, /Within limits/);
   await save(page);
   // Change the temperature answer: the first one stays in the record, marked changed.
+  // Going back sits behind one control: no Change button until it is opened (issue 17 point 8).
+  await expect(page.getByRole('button', { name: /^Change / })).toHaveCount(0);
+  await page.getByRole('button', { name: 'Change an earlier answer…' }).click();
   await page.getByRole('button', { name: 'Change Engine temperature' }).click();
   await reading(page, 'Reading (°C)', '21', /21 °C/, /Within limits/);
   await save(page);
@@ -144,6 +147,8 @@ test('a technician runs "No spark" to a Finding, partly without signal, and the 
   await shot(page, 'bench-finding');
   await page.getByRole('button', { name: 'Finish the diagnosis' }).click();
   await expect(page.getByText('Diagnosis finished')).toBeVisible();
+  // Closed on the phone: nothing on the path can be reopened (issue 17 point 8).
+  await expect(page.getByRole('button', { name: /^Change/ })).toHaveCount(0);
   await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
   await expect.poll(async () => ((await (await page.request.get(`/api/diagnoses/${id}`)).json()) as { status: string }).status, { timeout: 20_000 }).toBe('finished');
 

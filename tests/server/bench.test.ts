@@ -232,7 +232,11 @@ describe('stepping through the pinned version', () => {
     const refused = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('pulser', c.id, { entered: '120' }));
     expect(refused.status).toBe(422);
     expect(expectEnvelope(refused.body).code).toBe('not_acknowledged');
-    await step(id, 'pulser', c.id, { entered: '120', acknowledged: true });
+    await step(id, 'pulser', c.id, { entered: '120', acknowledged: true, acknowledgedAt: '2026-12-02T10:42:05.000Z' });
+    // The time of the acknowledgement stays in the record (issue 11 point 2).
+    const rec = await tech.get(`/api/diagnoses/${id}`).expect(200);
+    const pulser = (rec.body as { steps: { stepId: string; shown: { acknowledged?: boolean; acknowledgedAt?: string } }[] }).steps.find((s) => s.stepId === 'pulser');
+    expect(pulser?.shown).toMatchObject({ acknowledged: true, acknowledgedAt: '2026-12-02T10:42:05.000Z' });
   });
 });
 

@@ -27,6 +27,14 @@ export function SafetyNote({ signal, children, action }: { signal: SignalWord; c
   );
 }
 
+/**
+ * Whether a procedure's own limits note already says that service data come first, so the screen
+ * need not say it again. Example: saysServiceDataFirst("The manufacturer's service data … come first.") === true
+ */
+export function saysServiceDataFirst(note: string): boolean {
+  return /service data/i.test(note);
+}
+
 /** Said on every screen that shows limits. */
 export function LimitsNotice({ className }: { className?: string }) {
   return (

@@ -9,6 +9,8 @@ export interface LocalRow {
   leadEntered?: string;
   answerId?: string;
   acknowledged?: boolean;
+  /** When the DANGER note was acknowledged (ISO time). */
+  acknowledgedAt?: string;
   note: string;
   outcome?: Record<string, unknown>;
   startedAt: string;
@@ -31,7 +33,8 @@ export interface LocalDiagnosis {
   updatedAt: string;
 }
 
-export interface LocalVersion { id: string; slug: string; title: string; number: number; document: unknown }
+/** A published version kept on the phone; `branchCounts` are the shop's recorded branch frequencies when it was fetched. */
+export interface LocalVersion { id: string; slug: string; title: string; number: number; document: unknown; branchCounts?: Record<string, Record<string, number>> }
 
 /** What waits to be sent, in order. `seq` is the outbox order; `diagnosisId` groups it. */
 export type OutboxMessage =

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { COPPER_ALPHA_20, copperResistanceAt, decideReading, meterUncertainty, resolveLimits } from '@shared/measure';
+import { COPPER_ALPHA_20, copperResistanceAt, decideReading, limitCrossedBy, meterUncertainty, resolveLimits } from '@shared/measure';
 import type { Band, MeterSpec } from '@shared/schema';
 
 const meter: MeterSpec = { percentOfReading: 0.9, counts: 2, resolution: 0.1 };
@@ -111,5 +111,26 @@ describe('routing a decided reading', () => {
 
   it('gives no verdict when there are no limits', () => {
     expect(decideReading({ value: 1 }).verdict).toBeNull();
+  });
+});
+
+describe('an interval that crosses a limit under simple acceptance (ILAC-G8:09/2019 §4.2.1; JCGM 106:2012 §8.2)', () => {
+  it('199.0 Ω is within under simple acceptance, yet its interval (≈ 196.7–201.3 Ω) crosses the 200 Ω limit', () => {
+    // Worked values of REFERENCES.md: limits 100–200 Ω, meter ±(0.9 % + 2 counts) at 0.1 Ω, U = 2·MPE/√3.
+    const d = decideReading({ value: 199, limits, meter, rule: 'simple' });
+    expect(d.verdict).toBe('within');
+    expect(limitCrossedBy(d)).toBe(200);
+  });
+  it('197.0 Ω keeps its interval (U ≈ 2.278 Ω) inside the limits: nothing to explain', () => {
+    expect(limitCrossedBy(decideReading({ value: 197, limits, meter, rule: 'simple' }))).toBeNull();
+  });
+  it('the demo cap reading 5,95 kΩ against 4–6 kΩ at ±(0.8 % + 2 counts) crosses 6 kΩ (demo meter, illustrative)', () => {
+    const d = decideReading({ value: 5950, limits: { kind: 'range', min: 4000, max: 6000 }, meter: { percentOfReading: 0.8, counts: 2, resolution: 1 }, rule: 'simple' });
+    expect(d.verdict).toBe('within');
+    expect(d.interval!.high).toBeGreaterThan(6000);
+    expect(limitCrossedBy(d)).toBe(6000);
+  });
+  it('under guarded acceptance the same reading is borderline, which the screen already explains', () => {
+    expect(limitCrossedBy(decideReading({ value: 199, limits, meter, rule: 'guarded' }))).toBeNull();
   });
 });

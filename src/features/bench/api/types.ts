@@ -2,7 +2,7 @@
 export interface BenchProcedure {
   procedureId: string; slug: string; title: string; symptom: string; ignitionSystem: string; versionId: string; number: number;
 }
-export interface BenchVersion { id: string; slug: string; title: string; number: number; document: unknown }
+export interface BenchVersion { id: string; slug: string; title: string; number: number; document: unknown; branchCounts?: Record<string, Record<string, number>> }
 export interface Vehicle { id: string; label: string; model: string; frameNumber: string; hours: number | null }
 export interface Meter { id: string; name: string; spec: { entries?: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] } }
 export interface DiagnosisSummary {
@@ -12,7 +12,7 @@ export interface DiagnosisSummary {
 export interface RecordStep {
   id: string; seq: number; stepId: string; kind: string; entered: string | null; startedAtShown?: string; value: number | null; unit: string | null;
   verdict: string | null; answerId: string | null; superseded: boolean; note: string; startedAt: string; answeredAt: string;
-  shown: { title?: string; limitsText?: string; cause?: string; repair?: string; answers?: { id: string; label: string }[]; leadEntered?: string; acknowledged?: boolean;
+  shown: { title?: string; limitsText?: string; cause?: string; repair?: string; answers?: { id: string; label: string }[]; leadEntered?: string; acknowledged?: boolean; acknowledgedAt?: string;
     quantity?: string; unit?: string; corrections?: { leadNull?: number; temperatureFactor?: number } };
 }
 export interface DiagnosisRecord extends DiagnosisSummary {

@@ -12,6 +12,7 @@ import { useLocalDiagnosis } from '../hooks/use-local-diagnosis';
 import { StepCard } from './step-card';
 import { EndingForm } from './ending-form';
 import { PathList } from './path-list';
+import { progressOf, type Progress } from './progress-line';
 import { PhotoField } from './photo-field';
 import { SyncBadge } from './sync-badge';
 
@@ -39,18 +40,18 @@ function remeasuredAt(path: readonly { stepId: string; outcome: string }[], step
  * Sync state, steps done, the estimate left (path figures) and the time on this step. The badge
  * gets the diagnosis id so a refusal of THIS diagnosis is said as such, ahead of any other.
  */
-function ProgressHeader({ id, title, done, left, since }: { id: string; title: string; done: number; left: number | undefined; since: number | null }) {
-  const toGo = left !== undefined && Number.isFinite(left) ? Math.max(0, Math.round(left - 1)) : null;
+function ProgressHeader({ id, title, done, progress, since }: { id: string; title: string; done: number; progress: Progress; since: number | null }) {
   return (
     <header className="space-y-2">
       <p className="text-base text-ink-soft">{title}</p>
       <div className="flex flex-wrap items-center gap-3">
         <SyncBadge diagnosisId={id} />
-        <span className="text-lg font-semibold" data-testid="progress">{done} done{toGo !== null ? ` · about ${toGo} to go` : ''}</span>
+        <span className="text-lg font-semibold" data-testid="progress">{done} done{progress.toGo ? ` · ${progress.toGo}` : ''}</span>
         {since !== null && <span className="ml-auto text-lg font-semibold">Time on step <StepTimer since={since} /></span>}
       </div>
+      {progress.why && <p className="text-base font-semibold text-ink" data-testid="progress-why">{progress.why}</p>}
       <div className="h-3 overflow-hidden rounded-full bg-line" aria-hidden>
-        <div className="h-full bg-signal" style={{ width: `${Math.round((100 * done) / Math.max(1, done + (toGo ?? 0)))}%` }} />
+        <div className="h-full bg-signal" style={{ width: `${progress.percent}%` }} />
       </div>
     </header>
   );
@@ -99,7 +100,7 @@ export function DiagnosisScreen() {
   const { id = '' } = useParams();
   const d = useLocalDiagnosis(id);
   const [editing, setEditing] = useState<number | null>(null);
-  const figures = useMemo(() => (d.doc ? pathFigures(d.doc) : null), [d.doc]);
+  const figures = useMemo(() => (d.doc ? pathFigures(d.doc, { branchCounts: d.branchCounts }) : null), [d.doc, d.branchCounts]);
   const state = d.walked?.state;
   const stepKey = `${d.diagnosis?.rows.length ?? 0}-${editing ?? 'now'}`;
   const [shownAt, setShownAt] = useState(() => ({ key: stepKey, at: Date.now() }));
@@ -112,13 +113,13 @@ export function DiagnosisScreen() {
   const currentView = editPath ? stepView(doc, doc.steps.find((s) => s.id === editPath.stepId)!) : state.current;
   const currentStep = currentView ? doc.steps.find((s) => s.id === currentView.id)! : null;
   const done = state.path.filter((p) => p.entryIndex !== null).length;
-  const left = currentView && figures ? figures.perStep[currentView.id]?.expectedSteps : undefined;
+  const progress = figures ? progressOf(doc, figures.perStep, editing === null ? state.path : state.path.slice(0, editing), currentView?.id ?? null, done) : { toGo: null, why: null, percent: 0 };
   const startedAt = new Date(shownAt.at).toISOString();
   const photosHere = d.diagnosis.photos.filter((p) => p.stepId === (currentView?.id ?? state.ending?.id ?? null));
 
   return (
     <div className="mx-auto max-w-xl space-y-5 pb-16">
-      <ProgressHeader id={id} title={`${d.diagnosis.procedureTitle} · ${d.diagnosis.vehicleLabel}`} done={done} left={left} since={currentView || state.ending ? shownAt.at : null} />
+      <ProgressHeader id={id} title={`${d.diagnosis.procedureTitle} · ${d.diagnosis.vehicleLabel}`} done={done} progress={progress} since={currentView || state.ending ? shownAt.at : null} />
 
       {!editPath && <ComputedCard doc={doc} path={state.path} />}
 
@@ -138,7 +139,7 @@ export function DiagnosisScreen() {
       {d.diagnosis.status !== 'active' && <EndedNotice id={id} finished={d.diagnosis.status === 'finished'} />}
       {state.status === 'stuck' && <Alert title="The procedure cannot go on from here">{state.problem?.message}</Alert>}
 
-      <PathList doc={doc} path={state.path} onChange={(i) => { setEditing(i); window.scrollTo(0, 0); }} />
+      <PathList doc={doc} path={state.path} closed={d.diagnosis.status !== 'active'} onChange={(i) => { setEditing(i); window.scrollTo(0, 0); }} />
     </div>
   );
 }

@@ -81,7 +81,7 @@ export function EndingForm({ view, photos, onFinish }: { view: StepView; photos:
     <article className="space-y-4" data-kind={view.kind} aria-labelledby="ending-title">
       <p className="text-lg font-bold uppercase tracking-wide text-signal">{finding ? 'Finding' : 'Hand-off'}</p>
       <h2 id="ending-title" className="text-2xl font-black">{view.title}</h2>
-      <SafetyBlock view={view} acknowledged onAcknowledge={() => undefined} />
+      <SafetyBlock view={view} acknowledgedAt={null} locks={false} onAcknowledge={() => undefined} />
       {finding ? <FindingFields view={view} parts={parts} onParts={setParts} final={final} onFinal={setFinal} labour={labour} onLabour={setLabour} /> : (
         <label className="block text-lg font-bold">Why the machine goes to a senior technician
           <textarea className={`${input} min-h-28 py-2`} value={reason} onChange={(e) => setReason(e.target.value)} />

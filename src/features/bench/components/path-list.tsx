@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { PathStep } from '@shared/engine/walk';
 import { formatReading } from '@shared/measure/format';
@@ -20,10 +21,15 @@ function answerText(doc: ProcedureDocument, p: PathStep): string {
   return p.kind === 'task' ? 'done' : '';
 }
 
-/** The path so far; any answered step can be changed (the record keeps the old answer). */
-export function PathList({ doc, path, onChange }: { doc: ProcedureDocument; path: readonly PathStep[]; onChange(index: number): void }) {
+/**
+ * The path so far. Going back sits behind one control, so a gloved tap near the main button never
+ * reopens a step; once the diagnosis has ended (`closed`) nothing can be changed from here.
+ */
+export function PathList({ doc, path, closed, onChange }: { doc: ProcedureDocument; path: readonly PathStep[]; closed: boolean; onChange(index: number): void }) {
+  const [choosing, setChoosing] = useState(false);
   const shown = path.filter((p) => p.outcome !== 'ended');
   if (!shown.length) return null;
+  const changeable = !closed && shown.some((p) => p.entryIndex !== null);
   return (
     <section aria-labelledby="path-title" className="space-y-2">
       <h2 id="path-title" className="text-xl font-bold">Steps so far</h2>
@@ -34,13 +40,19 @@ export function PathList({ doc, path, onChange }: { doc: ProcedureDocument; path
             <li key={i} className="flex items-center gap-3 rounded-lg border border-line bg-panel p-2">
               <span className="flex h-8 w-8 shrink-0 items-center justify-center rounded-full bg-ink text-base font-bold text-white">{i + 1}</span>
               <span className="min-w-0 flex-1"><span className="block font-semibold">{title}</span><span className="block text-ink-soft">{answerText(doc, p)}</span></span>
-              {p.entryIndex !== null && (
-                <button type="button" onClick={() => onChange(i)} className="min-h-12 min-w-20 rounded-lg border-2 border-ink px-3 font-semibold" aria-label={`Change ${title}`}>Change</button>
+              {choosing && changeable && p.entryIndex !== null && (
+                <button type="button" onClick={() => { setChoosing(false); onChange(i); }} className="min-h-12 min-w-20 rounded-lg border-2 border-ink px-3 font-semibold" aria-label={`Change ${title}`}>Change</button>
               )}
             </li>
           );
         })}
       </ol>
+      {changeable && (
+        <button type="button" aria-expanded={choosing} onClick={() => setChoosing(!choosing)}
+          className="min-h-12 w-full rounded-lg border-2 border-dashed border-ink/60 bg-paper px-3 text-lg font-semibold">
+          {choosing ? 'Keep the answers as they are' : 'Change an earlier answer…'}
+        </button>
+      )}
     </section>
   );
 }

@@ -1,4 +1,4 @@
-import { useId, useState } from 'react';
+import { useId, useRef, useState } from 'react';
 import type { ReadingStep } from '@shared/schema/procedure';
 import { parseReading } from '@shared/measure/parse';
 import { decideReading, type ReadingDecision } from '@shared/measure/verdict';
@@ -34,6 +34,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
   const [text, setText] = useState('');
   const [lead, setLead] = useState('');
   const [letters, setLetters] = useState(false);
+  const input = useRef<HTMLInputElement>(null);
   const p = text.trim() ? preview(step, text, lead, values, remeasured) : null;
   const update = (t: string, l: string) => {
     setText(t); setLead(l);
@@ -45,7 +46,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
     <div className="space-y-3">
       <label htmlFor={id} className="block text-lg font-bold">Reading ({step.unit})</label>
       <div className="flex items-stretch gap-2">
-        <input id={id} className={inputClass} inputMode={letters ? 'text' : 'decimal'} autoComplete="off" autoCapitalize="characters" spellCheck={false}
+        <input ref={input} id={id} className={inputClass} inputMode={letters ? 'text' : 'decimal'} autoComplete="off" autoCapitalize="characters" spellCheck={false}
           value={text} disabled={disabled} aria-invalid={p ? !p.parsed.ok : undefined} aria-describedby={`${id}-feedback`}
           onChange={(e) => update(e.target.value, lead)} placeholder={`e.g. 0,4 or 4K7`} />
         <span className="flex min-w-14 items-center justify-center rounded-lg bg-ink px-3 text-xl font-bold text-white" aria-hidden>{step.unit}</span>
@@ -72,7 +73,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
             : 'This reading is corrected for engine temperature, but no temperature was measured on this path.'}
         </p>
       )}
-      {p?.decision && <VerdictPanel step={step} decision={p.decision} />}
+      {p?.decision && <VerdictPanel step={step} decision={p.decision} onRemeasure={() => { update('', lead); input.current?.focus(); }} />}
     </div>
   );
 }

@@ -49,6 +49,7 @@ function TimelineStep({ s, attachments }: { s: RecordStep; attachments: Diagnosi
       </div>
       <p className="text-lg">{answer(s)}{s.shown.limitsText ? <span className="text-ink-soft"> · limits {s.shown.limitsText}</span> : null}</p>
       {corrections(s) && <p className="text-ink-soft">{corrections(s)}</p>}
+      {s.shown.acknowledged && <p className="font-semibold" data-testid="record-acknowledged">DANGER note acknowledged{s.shown.acknowledgedAt ? ` at ${new Date(s.shown.acknowledgedAt).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}` : ''}</p>}
       {s.shown.cause && <p><strong>Cause:</strong> {s.shown.cause} <strong>Repair:</strong> {s.shown.repair}</p>}
       {s.note && <p className="text-ink-soft">Note: {s.note}</p>}
       {attachments.filter((a) => a.stepId === s.stepId && !s.superseded).map((a) => <img key={a.id} src={`/api/attachments/${a.id}/thumb`} alt={`Photo ${a.originalName}`} className="mt-2 inline-block h-24 w-24 rounded border border-line object-cover" />)}

@@ -2,20 +2,33 @@ import { useRef, useState, type ReactNode } from 'react';
 import type { Step } from '@shared/schema/procedure';
 import type { StepView } from '@shared/engine/step-view';
 import type { FormulaValue } from '@shared/measure/formula';
-import { SafetyNote, LimitsNotice } from '../../../components/ui/safety';
+import { SafetyNote, LimitsNotice, saysServiceDataFirst } from '../../../components/ui/safety';
 import { ReadingField, type ReadingValue } from './reading-field';
 import type { Answer } from '../hooks/use-local-diagnosis';
 
 const big = 'w-full min-h-16 rounded-xl px-5 text-xl font-bold text-left disabled:opacity-40';
 
+/** "10:42": the time of day of an ISO time, as the phone shows times. */
+export const timeOfDay = (iso: string) => new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
+
+/** The mark a DANGER note keeps once acknowledged, so the step shows it was read and when. */
+function AcknowledgedMark({ at }: { at: string }) {
+  return (
+    <p data-testid="acknowledged-mark" className="flex min-h-12 items-center gap-2 rounded-lg border-2 border-danger bg-paper px-3 text-lg font-bold text-ink">
+      <span aria-hidden className="text-2xl leading-none text-danger">✓</span>Acknowledged at {timeOfDay(at)}
+    </p>
+  );
+}
+
 /** Safety notes most severe first; a DANGER note locks the step until it is acknowledged. */
-export function SafetyBlock({ view, acknowledged, onAcknowledge }: { view: StepView; acknowledged: boolean; onAcknowledge(): void }) {
+export function SafetyBlock({ view, acknowledgedAt, onAcknowledge, locks = true }: { view: StepView; acknowledgedAt: string | null; onAcknowledge(): void; locks?: boolean }) {
+  const dangerAction = !locks ? undefined : acknowledgedAt
+    ? <AcknowledgedMark at={acknowledgedAt} />
+    : <button type="button" onClick={onAcknowledge} className="min-h-12 w-full rounded-lg bg-danger px-4 text-lg font-bold text-white">I have read this and will keep clear</button>;
   return (
     <div className="space-y-2">
       {view.safety.map((n, i) => (
-        <SafetyNote key={i} signal={n.signal} action={n.signal === 'DANGER' && !acknowledged
-          ? <button type="button" onClick={onAcknowledge} className="min-h-12 w-full rounded-lg bg-danger px-4 text-lg font-bold text-white">I have read this and will keep clear</button>
-          : undefined}>
+        <SafetyNote key={i} signal={n.signal} action={n.signal === 'DANGER' ? dangerAction : undefined}>
           {n.text}
         </SafetyNote>
       ))}
@@ -26,10 +39,11 @@ export function SafetyBlock({ view, acknowledged, onAcknowledge }: { view: StepV
 export function LimitsBox({ view }: { view: StepView }) {
   if (!view.limits) return null;
   return (
-    <div className="rounded-lg border-2 border-ink/20 bg-panel p-3">
+    <div className="rounded-lg border-2 border-ink/20 bg-panel p-3" data-testid="limits-box">
       <p className="text-lg">Limits: <strong className="text-xl">{view.limits.text}</strong></p>
-      {view.limitsNote && <p className="text-base text-ink-soft">{view.limitsNote}</p>}
-      <LimitsNotice />
+      {/* The service-data sentence once: the procedure's own note when it says it, else ours. */}
+      {view.limitsNote && <p className="text-base text-ink-soft" data-testid="limits-note">{view.limitsNote}</p>}
+      {!saysServiceDataFirst(view.limitsNote) && <LimitsNotice className="text-base" />}
     </div>
   );
 }
@@ -83,7 +97,8 @@ export function StepCard({ view, step, values, remeasure, remeasured, extras, on
   extras: (note: string, setNote: (n: string) => void) => ReactNode;
   onAnswer(a: Omit<Answer, 'startedAt'>): Promise<void>;
 }) {
-  const [acknowledged, setAcknowledged] = useState(!view.mustAcknowledge);
+  const [acknowledgedAt, setAcknowledgedAt] = useState<string | null>(null);
+  const acknowledged = !view.mustAcknowledge || acknowledgedAt !== null;
   const [reading, setReading] = useState<ReadingValue>({ entered: '', leadEntered: '', valid: false });
   const [note, setNote] = useState('');
   // A second tap while the answer is being kept is ignored. A ref, not state: re-rendering the card
@@ -95,7 +110,7 @@ export function StepCard({ view, step, values, remeasure, remeasured, extras, on
     sending.current = true;
     performance.mark('bench:answer');
     try {
-      await onAnswer({ stepId: view.id, note, acknowledged: view.mustAcknowledge ? acknowledged : false, ...a });
+      await onAnswer({ stepId: view.id, note, acknowledged: view.mustAcknowledge ? acknowledged : false, ...(view.mustAcknowledge && acknowledgedAt ? { acknowledgedAt } : {}), ...a });
     } finally {
       sending.current = false;
     }
@@ -103,13 +118,19 @@ export function StepCard({ view, step, values, remeasure, remeasured, extras, on
   return (
     <article className="space-y-4" aria-labelledby="step-title" data-kind={view.kind}>
       <h2 id="step-title" className="text-2xl font-black leading-tight">{view.title}</h2>
-      <SafetyBlock view={view} acknowledged={acknowledged} onAcknowledge={() => setAcknowledged(true)} />
+      <SafetyBlock view={view} acknowledgedAt={acknowledgedAt} onAcknowledge={() => setAcknowledgedAt(new Date().toISOString())} />
       {view.instructions && <p className="text-xl leading-snug">{view.instructions}</p>}
       {remeasure && <p className="rounded-lg bg-edge-soft p-3 text-lg font-semibold text-ink">The last reading was borderline: measure again.</p>}
       <LimitsBox view={view} />
       {extras(note, setNote)}
       <fieldset disabled={locked} className="space-y-3">
         <legend className="sr-only">Answer</legend>
+        {locked && (
+          <p data-testid="locked-reason" className="flex items-start gap-2 rounded-lg border-l-8 border-danger bg-paper p-3 text-lg font-semibold text-ink">
+            <span aria-hidden className="inline-flex h-7 w-7 shrink-0 items-center justify-center rounded-full bg-danger text-base font-black text-white">!</span>
+            <span>Answers are locked until you acknowledge the DANGER note above (“I have read this and will keep clear”).</span>
+          </p>
+        )}
         <AnswerControls view={view} step={step} values={values} remeasured={remeasured} locked={locked} reading={reading} onReading={setReading} send={send} />
       </fieldset>
     </article>

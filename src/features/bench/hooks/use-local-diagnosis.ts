@@ -1,17 +1,20 @@
 import { useCallback, useEffect, useMemo, useState } from 'react';
 import type { ProcedureDocument } from '@shared/schema/procedure';
+import type { BranchCounts } from '@shared/engine/figures';
 import { commitLocal, getLocalDiagnosis, getVersion, type LocalDiagnosis, type LocalRow, type OutboxMessage } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
 import { afterFor, formulaRows, walkRows, withMeter, type Walked } from '../lib/walk-rows';
 import { makeThumbnail } from '../lib/thumbnail';
 
-export interface Answer { stepId: string; entered?: string; leadEntered?: string; answerId?: string; acknowledged?: boolean; note: string; startedAt: string }
+export interface Answer { stepId: string; entered?: string; leadEntered?: string; answerId?: string; acknowledged?: boolean; acknowledgedAt?: string; note: string; startedAt: string }
 
 export interface LocalDiagnosisApi {
   loading: boolean;
   error: string | null;
   diagnosis: LocalDiagnosis | null;
   doc: ProcedureDocument | null;
+  /** Recorded branch frequencies of the version in this shop (empty without history). */
+  branchCounts: BranchCounts;
   walked: Walked | null;
   /** Answers the current step, or (with `index`) the step at that place on the path, going back. */
   answer(a: Answer, index?: number): Promise<void>;
@@ -23,6 +26,7 @@ export interface LocalDiagnosisApi {
 function useStoredDiagnosis(id: string) {
   const [diagnosis, setDiagnosis] = useState<LocalDiagnosis | null>(null);
   const [doc, setDoc] = useState<ProcedureDocument | null>(null);
+  const [branchCounts, setBranchCounts] = useState<BranchCounts>({});
   const [error, setError] = useState<string | null>(null);
   const [loading, setLoading] = useState(true);
   useEffect(() => {
@@ -34,11 +38,11 @@ function useStoredDiagnosis(id: string) {
       // The server sends the document already upgraded and parsed; checking it again here would
       // put the schema library into the phone's first download.
       if (!v) throw new Error('The procedure of this diagnosis is not on this phone. Connect once and open it again.');
-      if (live) { setDiagnosis(d); setDoc(withMeter(v.document as ProcedureDocument, d.meterEntries)); }
+      if (live) { setDiagnosis(d); setDoc(withMeter(v.document as ProcedureDocument, d.meterEntries)); setBranchCounts(v.branchCounts ?? {}); }
     })().catch((e: unknown) => live && setError(e instanceof Error ? e.message : String(e))).finally(() => live && setLoading(false));
     return () => { live = false; };
   }, [id]);
-  return { diagnosis, setDiagnosis, doc, error, loading };
+  return { diagnosis, setDiagnosis, doc, branchCounts, error, loading };
 }
 
 /** The row an answer becomes: a fresh client id, linked after the step it follows on the path. */
@@ -46,7 +50,7 @@ function answerRow(a: Answer, path: Walked['path'], at: number, now: string): Lo
   return {
     id: crypto.randomUUID(), stepId: a.stepId, after: afterFor(path, at), note: a.note, startedAt: a.startedAt, answeredAt: now,
     ...(a.entered !== undefined ? { entered: a.entered } : {}), ...(a.leadEntered ? { leadEntered: a.leadEntered } : {}),
-    ...(a.answerId !== undefined ? { answerId: a.answerId } : {}), ...(a.acknowledged ? { acknowledged: true } : {}),
+    ...(a.answerId !== undefined ? { answerId: a.answerId } : {}), ...(a.acknowledged ? { acknowledged: true, ...(a.acknowledgedAt ? { acknowledgedAt: a.acknowledgedAt } : {}) } : {}),
   };
 }
 
@@ -61,7 +65,7 @@ function afterNextPaint(fn: () => void): void {
 
 /** A diagnosis read from and written to the phone; the outbox carries each change to the server. */
 export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
-  const { diagnosis, setDiagnosis, doc, error, loading } = useStoredDiagnosis(id);
+  const { diagnosis, setDiagnosis, doc, branchCounts, error, loading } = useStoredDiagnosis(id);
   const walked = useMemo(() => (doc && diagnosis ? walkRows(doc, diagnosis.rows) : null), [doc, diagnosis]);
 
   const save = useCallback(async (next: LocalDiagnosis, messages: OutboxMessage[]) => {
@@ -97,5 +101,5 @@ export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
     await save(next, [{ kind: 'photo', id: photoId, stepId, name, photo: file, thumb: thumb?.blob ?? null }]);
   }, [diagnosis, save]);
 
-  return { loading, error, diagnosis, doc, walked, answer, finish, addPhoto };
+  return { loading, error, diagnosis, doc, branchCounts, walked, answer, finish, addPhoto };
 }
