@@ -88,6 +88,23 @@ describe('stepping through the pinned version', () => {
     expect(late.status).toBe(409);
   });
 
+  it("the version a phone fetches carries the shop's recorded branch counts of ended diagnoses, for the progress line", async () => {
+    const before = (await tech.get(`/api/bench/versions/${world.versionId}`).expect(200)).body as { branchCounts: Record<string, Record<string, number>> };
+    const id = await start();
+    const a = await step(id, 'killLead', null);
+    const b = await step(id, 'sparkTest', a.id, { answerId: 'none' });
+    const c = await step(id, 'exciter', b.id, { entered: '150' });
+    const d = await step(id, 'pulser', c.id, { entered: '120', acknowledged: true });
+    const e = await step(id, 'combined', d.id);
+    // Still active: not counted yet.
+    const during = (await tech.get(`/api/bench/versions/${world.versionId}`).expect(200)).body as typeof before;
+    expect(during.branchCounts).toEqual(before.branchCounts);
+    await step(id, 'cdiFinding', e.id, { outcome: { partsFitted: [], finalCheck: { spark: true, runs: true, stops: true }, labourMinutes: 30 } });
+    const after = (await tech.get('/api/bench/procedures/bench-test').expect(200)).body as typeof before;
+    expect(after.branchCounts.sparkTest?.['answer:none']).toBe((before.branchCounts.sparkTest?.['answer:none'] ?? 0) + 1);
+    expect(after.branchCounts.exciter?.['band:ok']).toBeGreaterThan(0);
+  });
+
   it('stores a step sent twice as one row, and refuses the same id with another payload', async () => {
     const id = await start();
     const body = stepBody('killLead', null);
