@@ -1,4 +1,5 @@
 import { useCallback, useEffect, useMemo, useState } from 'react';
+import { flushSync } from 'react-dom';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { BranchCounts } from '@shared/engine/figures';
 import { commitLocal, getLocalDiagnosis, getVersion, type LocalDiagnosis, type LocalRow, type OutboxMessage } from '../../../lib/offline/db';
@@ -72,7 +73,8 @@ export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
     performance.mark('bench:keep');
     await commitLocal(next, messages); // on the phone before the next step shows
     performance.mark('bench:kept');
-    setDiagnosis(next);
+    // Rendered at once, not in a later scheduler task: the next step is the only thing to do now.
+    flushSync(() => setDiagnosis(next));
     afterNextPaint(() => void flushOutbox());
   }, [setDiagnosis]);
 
