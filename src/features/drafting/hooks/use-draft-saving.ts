@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { procedureDocumentSchema, type ProcedureDocument } from '@shared/schema';
 import { ApiError } from '../../../lib/api-client';
 import { saveDraft, type VersionIds } from '../api/versions';
@@ -58,14 +58,16 @@ export function useDraftSaving(ids: VersionIds, doc: ProcedureDocument, initial:
   }, [enabled, ids]);
 
   const conflicted = state.kind === 'conflict';
+  // once per document, not once per render: at 1 000 steps the text is about a megabyte
+  const json = useMemo(() => JSON.stringify(doc), [doc]);
   useEffect(() => {
     if (!enabled || conflicted) return;
-    if (JSON.stringify(doc) === savedJson.current) return;
+    if (json === savedJson.current) return;
     setState((s) => (s.kind === 'saving' ? s : { kind: 'dirty' }));
     const t = setTimeout(() => void save(doc), IDLE_MS);
     return () => clearTimeout(t);
-  }, [doc, enabled, conflicted, save]);
+  }, [doc, json, enabled, conflicted, save]);
 
-  const dirty = JSON.stringify(doc) !== savedJson.current;
+  const dirty = json !== savedJson.current;
   return { state, save: () => save(doc), reset, dirty, lockVersion: () => lock.current };
 }

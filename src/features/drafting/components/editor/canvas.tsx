@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useState, type Dispatch, type DragEvent, type SetStateAction } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type Dispatch, type DragEvent, type SetStateAction } from 'react';
 import {
   ReactFlow, Background, Controls, MiniMap, applyNodeChanges, useReactFlow,
   type Connection, type EdgeChange, type NodeChange, type OnSelectionChangeParams, type ReactFlowProps,
@@ -6,7 +6,7 @@ import {
 import '@xyflow/react/dist/style.css';
 import type { ProcedureDocument, StepKind } from '@shared/schema';
 import type { Edit } from '../../lib/edits';
-import { openingView, toFlow, type BranchEdge, type FlowMarks, type StepNode } from '../../lib/flow';
+import { keepUnchanged, openingView, toFlow, type BranchEdge, type FlowMarks, type StepNode } from '../../lib/flow';
 import { stepFor } from '../../lib/new-step';
 import { nodeTypes } from './step-node';
 import { KIND_TONE } from './step-glyphs';
@@ -33,7 +33,11 @@ const CANVAS_OPTIONS: Partial<ReactFlowProps<StepNode>> = {
   maxZoom: 2,
   proOptions: { hideAttribution: true },
   defaultEdgeOptions: { type: 'smoothstep' },
+  // steps off screen are neither rendered nor measured: toFlow gives each its size and handles
+  onlyRenderVisibleElements: true,
 };
+
+const minimapColour = (n: StepNode) => KIND_TONE[n.data.step.kind].stroke;
 
 /**
  * Selection and measurements belong to React Flow: a document change keeps them, and a step
@@ -44,8 +48,18 @@ function keepCanvasState(prev: StepNode[], next: StepNode[]): StepNode[] {
   return next.map((n) => {
     const p = before.get(n.id);
     if (!p) return n;
-    return { ...n, selected: p.selected ?? false, ...(p.measured ? { measured: p.measured } : {}), ...(p.dragging ? { position: p.position, dragging: true } : {}) };
+    // the same step drawn the same: React Flow's own object, so the node is not drawn again
+    if (p.data === n.data && (p.position === n.position || p.dragging)) return p;
+    // a measured node keeps the handle places React Flow read from the page, not the estimated ones
+    const { handles: _estimated, ...rest } = n;
+    return { ...(p.measured ? rest : n), selected: p.selected ?? false, ...(p.measured ? { measured: p.measured } : {}), ...(p.dragging ? { position: p.position, dragging: true } : {}) };
   });
+}
+
+/** toFlow, with the objects of what did not change kept from the last call. */
+function useFlow(doc: ProcedureDocument, marks: FlowMarks) {
+  const last = useRef<ReturnType<typeof toFlow> | null>(null);
+  return useMemo(() => (last.current = keepUnchanged(last.current, toFlow(doc, marks))), [doc, marks]);
 }
 
 // React Flow needs to move nodes while they are dragged; the document changes on drop.
@@ -90,7 +104,7 @@ function useEditHandlers(edges: BranchEdge[], setNodes: Dispatch<SetStateAction<
 
 /** React Flow bound to the document: every change the canvas reports becomes one Edit. */
 export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }: Props) {
-  const flow = useMemo(() => toFlow(doc, marks), [doc, marks]);
+  const flow = useFlow(doc, marks);
   const [opening] = useState(() => openingView(doc)); // the first document only: edits never move the view
   const [nodes, setNodes] = useCanvasNodes(flow.nodes, selectRequest);
   const { screenToFlowPosition } = useReactFlow();
@@ -121,7 +135,7 @@ export function Canvas({ doc, marks, selectRequest, readOnly, onEdit, onSelect }
         fitViewOptions={opening}
       >
         <Background gap={24} color="var(--color-line)" />
-        <MiniMap pannable zoomable ariaLabel="Overview of the procedure" nodeColor={(n) => KIND_TONE[(n as StepNode).data.step.kind].stroke} />
+        <MiniMap pannable zoomable ariaLabel="Overview of the procedure" nodeColor={minimapColour} />
         <Controls showInteractive={false} />
       </ReactFlow>
     </div>
