@@ -2,7 +2,8 @@ import { describe, it, expect } from 'vitest';
 import { lintProcedure } from '@shared/engine';
 import { doc, ohmsReading, observation, finding, task } from '../shared/fixtures';
 import { applyEdit, historyReducer, initialHistory, UNCONNECTED } from '../../src/features/drafting/lib/edits';
-import { toFlow, fromFlow, openingView } from '../../src/features/drafting/lib/flow';
+import { toFlow, fromFlow, keepUnchanged, openingView } from '../../src/features/drafting/lib/flow';
+import { stepBox } from '@shared/engine/geometry';
 import { copySteps, pasteSteps } from '../../src/features/drafting/lib/clipboard';
 import { diffDocuments } from '../../src/features/drafting/lib/diff';
 import { stepFor } from '../../src/features/drafting/lib/new-step';
@@ -80,6 +81,27 @@ describe('toFlow and fromFlow', () => {
   it('node data is plain data: it survives JSON unchanged, with no functions in it', () => {
     const { nodes } = toFlow(coilCheck(), { issues: new Map([['shorted', 'warning']]), path: new Set(['coilPrimary']) });
     expect(JSON.parse(JSON.stringify(nodes))).toEqual(nodes);
+  });
+
+  it('after an edit to one step, only that step and its branches get new objects, so React Flow redraws only them', () => {
+    const d = coilCheck();
+    const before = toFlow(d);
+    const edited = applyEdit(d, { type: 'connect', from: 'sparkSeen', handle: 'answer:yes', to: 'shorted' });
+    const after = keepUnchanged(before, toFlow(edited));
+    const renewedNodes = after.nodes.filter((n, i) => n !== before.nodes[i]).map((n) => n.id);
+    const renewedEdges = after.edges.filter((e) => !before.edges.includes(e)).map((e) => e.id);
+    expect(renewedNodes).toEqual(['sparkSeen']);
+    expect(renewedEdges).toEqual(['sparkSeen:answer:yes']);
+    expect(fromFlow(edited, after.nodes, after.edges)).toEqual(edited);
+  });
+
+  it('every node carries its box and handle places, so a step never rendered (off screen) can still be fitted and joined', () => {
+    const { nodes } = toFlow(coilCheck());
+    for (const n of nodes) {
+      expect(n.measured).toEqual(stepBox(n.data.step));
+      expect(n.handles!.map((h) => h.id).sort()).toEqual([...n.data.handles.map((h) => h.id), 'in'].sort());
+      for (const h of n.handles!) expect(h.x).toBeGreaterThanOrEqual(0);
+    }
   });
 
   it('a handle whose edge was deleted on the canvas comes back unconnected', () => {
