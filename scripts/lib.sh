@@ -35,3 +35,44 @@ start_local_db() {
   DATABASE_URL=$(bash scripts/pg.sh start)
   export DATABASE_URL
 }
+
+# Debian's HAProxy for npm run cluster and perf:steps --cluster
+ensure_haproxy() {
+  if command -v haproxy >/dev/null; then return; fi
+  if [ "$(id -u)" != 0 ]; then say "HAProxy is missing: sudo apt-get install haproxy"; exit 1; fi
+  say "installing Debian's haproxy (one time)"
+  apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq haproxy >/dev/null
+  # the package starts its own service on port 80; the cluster runs its own HAProxy in the foreground
+  { systemctl disable --now haproxy || service haproxy stop; } >/dev/null 2>&1 || true
+}
+
+# An HAProxy configuration on stdout: listen on 127.0.0.1:$1, round-robin over the app servers on
+# the loopback ports that follow, each checked on /api/health every second. A refused connection
+# is retried on the other server (option redispatch); a request that reached a server that died
+# is not replayed by the balancer (the phone's outbox sends it again, and a step sent twice is
+# stored once).
+haproxy_config() {
+  local listen=$1; shift
+  cat <<CFG
+global
+  maxconn 4096
+defaults
+  mode http
+  timeout connect 2s
+  timeout client 60s
+  timeout server 60s
+  timeout http-keep-alive 10s
+  retries 3
+  option redispatch
+frontend web
+  bind 127.0.0.1:$listen
+  default_backend app
+backend app
+  balance roundrobin
+  option httpchk GET /api/health
+  http-check expect status 200
+  default-server check inter 1s fall 2 rise 2 observe layer4 error-limit 1 on-error mark-down
+CFG
+  local i=1
+  for p in "$@"; do echo "  server app$i 127.0.0.1:$p"; i=$((i + 1)); done
+}

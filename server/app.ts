@@ -86,6 +86,7 @@ export function createApp(deps: AppDeps, first?: (app: Express) => void): Expres
   app.use(passport.session());
 
   const csrf = csrfSync({ size: 32, getTokenFromRequest: (req) => req.headers[CSRF_HEADER] as string | undefined });
+  if (deps.reads) app.use('/api', deps.reads.markWrites);
   app.use('/api', express.json({ limit: '5mb' }));
   app.use('/api', csrf.csrfSynchronisedProtection);
   app.use('/api', apiRouter(deps, csrf.generateToken));

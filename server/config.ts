@@ -10,6 +10,10 @@ const EnvSchema = z.object({
   HOST: z.string().default('127.0.0.1'),
   APP_URL: z.string().url().optional(),
   DATABASE_URL: z.string().startsWith('postgres://', 'DATABASE_URL must be a postgres:// URL'),
+  /** a streaming replica of DATABASE_URL for Debrief's analytics and long lists; empty for none */
+  DATABASE_REPLICA_URL: z.union([z.literal(''), z.string().startsWith('postgres://', 'DATABASE_REPLICA_URL must be a postgres:// URL')]).default(''),
+  /** a replica further behind than this is not read; Debrief reads the primary until it catches up */
+  REPLICA_MAX_LAG_SECONDS: z.coerce.number().positive().max(3600).default(5),
   SESSION_SECRET: z.string().min(16).default('sparkwright-local-session-secret'),
   DEMO_PASSWORD: z.string().min(8).default('spark-demo-2026'),
   SMTP_HOST: z.string().default('127.0.0.1'),
@@ -21,6 +25,8 @@ const EnvSchema = z.object({
   S3_ACCESS_KEY: z.string().default('S3RVER'),
   S3_SECRET_KEY: z.string().default('S3RVER'),
   LOCAL_FAKES: bool.default(true),
+  /** with LOCAL_FAKES=0: the folder where a fake receiver in another process keeps its mail (npm run cluster) */
+  MAILBOX_DIR: z.string().default(''),
   DATA_DIR: z.string().default('.data'),
   SERVE_CLIENT: bool.default(true),
   LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),

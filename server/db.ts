@@ -30,12 +30,16 @@ export const pgClientTimeouts = {
   keepAlive: true,
 };
 
-export function createSequelize(databaseUrl: string, opts: { logging?: boolean; pool?: number } = {}): Sequelize {
+/** `name` shows as application_name in pg_stat_activity (the replica's pool is told apart by it). */
+export function createSequelize(databaseUrl: string, opts: { logging?: boolean; pool?: number; name?: string; connectTimeoutMs?: number } = {}): Sequelize {
   return new Sequelize(databaseUrl, {
     dialect: 'postgres',
     logging: opts.logging ? (sql) => console.log(sql) : false,
     pool: { max: opts.pool ?? 10, min: 0, idle: 10_000, acquire: DB_TIMEOUTS.acquireMs },
-    dialectOptions: pgClientTimeouts,
+    dialectOptions: {
+      ...pgClientTimeouts, application_name: opts.name ?? 'sparkwright',
+      connectionTimeoutMillis: opts.connectTimeoutMs ?? pgClientTimeouts.connectionTimeoutMillis,
+    },
     define: { underscored: true },
   });
 }

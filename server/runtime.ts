@@ -8,6 +8,8 @@ import type { FakeSmtp } from './dev/fake-smtp';
 import type { FakeS3 } from './dev/fake-s3';
 import { initModels } from './models';
 import { startCacheBus } from './lib/cache-bus';
+import { startReadReplica } from './lib/read-replica';
+import { readMailbox } from './dev/fake-smtp';
 
 export interface Runtime { deps: AppDeps; fakes: { smtp: FakeSmtp | null; s3: FakeS3 | null }; close(): Promise<void> }
 
@@ -46,13 +48,21 @@ export async function startRuntime(config: Config, opts: { migrate?: boolean } =
     accessKeyId: config.S3_ACCESS_KEY, secretAccessKey: config.S3_SECRET_KEY,
   });
   await store.ensureBucket();
-  const deps: AppDeps = { config, sequelize, mailer, store, mailbox: smtp, log };
+  const mailbox = smtp ?? (config.MAILBOX_DIR ? { messages: () => readMailbox(config.MAILBOX_DIR) } : null);
+  const reads = config.DATABASE_REPLICA_URL
+    ? startReadReplica({
+      primary: sequelize, maxLagSeconds: config.REPLICA_MAX_LAG_SECONDS, log,
+      replica: createSequelize(config.DATABASE_REPLICA_URL, { pool: 5, name: 'sparkwright-debrief-reads', connectTimeoutMs: 2000 }),
+    })
+    : null;
+  const deps: AppDeps = { config, sequelize, reads, mailer, store, mailbox, log };
   const stopCacheBus = await startCacheBus(config.DATABASE_URL, log);
   return {
     deps,
     fakes: { smtp, s3 },
     async close() {
       await stopCacheBus();
+      await reads?.close();
       mailer.close();
       await smtp?.close();
       await s3?.close();

@@ -1,4 +1,5 @@
-import { QueryTypes } from 'sequelize';
+import { ConnectionError, QueryTypes, type Sequelize } from 'sequelize';
+import { READ_TAG } from '../lib/read-replica';
 import type { ShopContext } from '../auth/context';
 import type { AppDeps } from '../deps';
 import { AppError, notFound } from '../lib/errors';
@@ -11,6 +12,35 @@ export type Sql = (sql: string, bind: unknown[]) => Promise<Record<string, unkno
 
 export function sqlOf(deps: Pick<AppDeps, 'sequelize'>): Sql {
   return (sql, bind) => deps.sequelize.query<Record<string, unknown>>(sql, { bind, type: QueryTypes.SELECT });
+}
+
+const taggedSql = (db: Sequelize): Sql => (sql, bind) =>
+  db.query<Record<string, unknown>>(READ_TAG + sql, { bind, type: QueryTypes.SELECT });
+
+/** A lost connection, a server shutting down (57…) or unreachable (08…): the replica is unwell. */
+function replicaUnwell(err: unknown): boolean {
+  const code = (err as { original?: { code?: unknown } }).original?.code;
+  return err instanceof ConnectionError || (typeof code === 'string' && (code.startsWith('57') || code.startsWith('08')));
+}
+
+/**
+ * Reads for Debrief's analytics and long lists: the replica when it is in use and this browser
+ * wrote nothing in the last few seconds, else the primary. A read the replica fails (it went
+ * down, or cancelled the query for a conflict with recovery) is run again on the primary.
+ */
+export function readSqlOf(deps: Pick<AppDeps, 'sequelize' | 'reads'>, cookies: string | undefined): Sql {
+  const primary = taggedSql(deps.sequelize);
+  const reads = deps.reads;
+  if (!reads?.usable(cookies)) return primary;
+  const replica = taggedSql(reads.sequelize);
+  return async (sql, bind) => {
+    try {
+      return await replica(sql, bind);
+    } catch (err) {
+      if (replicaUnwell(err)) reads.failed(err);
+      return primary(sql, bind);
+    }
+  };
 }
 
 export function parseDocument(raw: unknown): ProcedureDocument {
