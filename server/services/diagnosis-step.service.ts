@@ -63,6 +63,8 @@ function writeSql(goingBack: boolean): string {
   ), ${goingBack ? `sup AS (
     UPDATE diagnosis_steps SET superseded = true
      WHERE diagnosis_id = $3::uuid AND seq >= $22::int AND NOT superseded AND EXISTS (SELECT 1 FROM live)
+       -- a step sent again to a server whose remembered path already holds it is no going back
+       AND NOT EXISTS (SELECT 1 FROM diagnosis_steps WHERE id = $1::uuid)
   ), ` : ''}ins AS (
     INSERT INTO diagnosis_steps (id, shop_id, diagnosis_id, seq, step_id, kind, shown, entered, value, unit, verdict,
                                  band_id, answer_id, note, started_at, answered_at, payload_hash, next_step_id,

@@ -112,6 +112,10 @@ describe('stepping through the pinned version', () => {
     const again = await tech.post(`/api/diagnoses/${id}/steps`, body).expect(200);
     expect(again.body.duplicate).toBe(true);
     expect(await DiagnosisStep.count({ where: { diagnosisId: id } })).toBe(1);
+    // the path still stands at the step sent twice: the next answer follows it
+    const next = await tech.post(`/api/diagnoses/${id}/steps`, stepBody('sparkTest', body.id, { answerId: 'none' }));
+    expect(next.status).toBe(201);
+    expect(await DiagnosisStep.count({ where: { diagnosisId: id, superseded: true } })).toBe(0);
     const changed = await tech.post(`/api/diagnoses/${id}/steps`, { ...body, note: 'different' });
     expect(changed.status).toBe(422);
     expect(expectEnvelope(changed.body).code).toBe('id_reused');
