@@ -26,5 +26,7 @@ step "client build" env NODE_ENV=production TMPDIR="$PWD/.tmp/build" npx vite bu
 step "bundle budgets and the production start" env REPORT=.tmp/reports/budgets.json PROD_DATABASE_URL="$PROD_DB" npx vitest run --config vitest.build.config.ts --reporter=default --reporter=json --outputFile=.tmp/reports/budgets.json
 export E2E_DATABASE_URL=$E2E_DB E2E_PORT=$(free_port 3900)
 step "end-to-end tests" env PLAYWRIGHT_JSON_OUTPUT_NAME=.tmp/reports/e2e.json npx playwright test --reporter=list,json
+ensure_haproxy || exit 1
+step "cluster (short)" npx vitest run --config vitest.cluster.config.ts --reporter=default --reporter=json --outputFile=.tmp/reports/cluster.json
 node scripts/summarize.mjs .tmp/reports || status=1
 exit $status
