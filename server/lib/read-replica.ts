@@ -85,7 +85,8 @@ export function startReadReplica(opts: {
     failed: (err) => setState('down', err),
     status: () => ({ state, lagSeconds, debriefReadsFrom: state === 'in use' ? 'replica' : 'primary' }),
     markWrites: (req, res, next) => {
-      if (req.method !== 'GET' && req.method !== 'HEAD') {
+      // signing in or out changes nothing Debrief reads
+      if (req.method !== 'GET' && req.method !== 'HEAD' && !req.path.startsWith('/auth/')) {
         res.cookie(WROTE_COOKIE, String(Date.now()), { maxAge: windowMs, httpOnly: true, sameSite: 'lax', path: '/api' });
       }
       next();

@@ -107,15 +107,15 @@ describe('a cluster of two app servers behind HAProxy, with a read replica', () 
     const start = { id: diagnosisId, procedureVersionId: version.versionId ?? version.id, vehicleId: vehicle.id, meterId: meter.id, complaint: 'Cranks, no spark', conditions: { engine: 'cold', ambientC: 18, startingMethod: 'kick', batteryVolts: null }, startedAt: new Date().toISOString() };
     expect((await tech.send('/api/diagnoses', start)).status).toBe(201);
 
-    let stepId: string = version.document.start;
+    let stepId: string | null = version.document.start;
     let after: string | null = null;
     const walked: string[] = [];
     const tries = { n: 0 };
     while (stepId) {
       if (walked.length === 7) process.kill(Number(run.APP1_PID), 'SIGKILL'); // mid-diagnosis, no warning
       const now = new Date().toISOString();
-      const body = { id: randomUUID(), after, stepId, startedAt: now, answeredAt: now, acknowledged: true, ...(ANSWERS[stepId] ?? {}) };
-      const res = await tech.send(`/api/diagnoses/${diagnosisId}/steps`, body, tries);
+      const body: Record<string, unknown> & { id: string } = { id: randomUUID(), after, stepId, startedAt: now, answeredAt: now, acknowledged: true, ...(ANSWERS[stepId] ?? {}) };
+      const res: request.Response = await tech.send(`/api/diagnoses/${diagnosisId}/steps`, body, tries);
       expect(res.status, `${stepId}: ${JSON.stringify(res.body.error ?? '')}`).toBe(201);
       if (walked.length === 8) {
         // the phone never heard the answer and sends the same step again: stored once
