@@ -4,6 +4,7 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/lib.sh
 ensure_node_modules
+case " $* " in *' --cluster '*) ensure_haproxy ;; esac  # perf:steps -- --cluster
 export PG_ROOT=$PWD/.tmp/pg-perf
 DATABASE_URL=$(APP_DB=sparkwright_perf bash scripts/pg.sh start --throwaway)
 export DATABASE_URL NODE_ENV=test
