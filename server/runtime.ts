@@ -9,7 +9,7 @@ import type { FakeS3 } from './dev/fake-s3';
 import { initModels } from './models';
 import { startCacheBus } from './lib/cache-bus';
 import { startReadReplica } from './lib/read-replica';
-import { readMailbox } from './dev/fake-smtp';
+import { readMailbox } from './dev/mailbox-file';
 
 export interface Runtime { deps: AppDeps; fakes: { smtp: FakeSmtp | null; s3: FakeS3 | null }; close(): Promise<void> }
 

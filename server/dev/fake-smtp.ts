@@ -1,7 +1,6 @@
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
 import { appendFile, mkdir, readFile } from 'node:fs/promises';
-import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { AddressInfo } from 'node:net';
 
@@ -83,12 +82,3 @@ export async function startFakeSmtp(opts: { port?: number; dir?: string } = {}):
   };
 }
 
-/**
- * The mail a fake receiver in another process (npm run cluster's fakes) kept in `dir`, so that
- * every app server shows the same mailbox.
- */
-export function readMailbox(dir: string): ReceivedMail[] {
-  let text: string;
-  try { text = readFileSync(path.join(dir, 'mail.jsonl'), 'utf8'); } catch { return []; }
-  return text.split('\n').filter((l) => l.trim()).map((l) => JSON.parse(l) as ReceivedMail);
-}
