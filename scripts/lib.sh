@@ -47,7 +47,7 @@ ensure_haproxy() {
 }
 
 # An HAProxy configuration on stdout: listen on 127.0.0.1:$1, round-robin over the app servers on
-# the loopback ports that follow, each checked on /api/health every second (a server that refuses a connection is out at once). A refused connection
+# the loopback ports that follow, each checked on /api/health every 2 s (a server that refuses a connection is out at once). A refused connection
 # is retried on the other server (option redispatch); a request that reached a server that died
 # is not replayed by the balancer (the phone's outbox sends it again, and a step sent twice is
 # stored once).
@@ -63,7 +63,7 @@ defaults
   timeout server 60s
   timeout http-keep-alive 10s
   # a server busy under load answers its check late, not never: it stays in until three checks fail
-  timeout check 5s
+  timeout check 10s
   retries 3
   option redispatch
 frontend web
@@ -73,7 +73,7 @@ backend app
   balance roundrobin
   option httpchk GET /api/health
   http-check expect status 200
-  default-server check inter 1s fall 3 rise 2 observe layer4 error-limit 1 on-error mark-down
+  default-server check inter 2s fall 3 rise 2 observe layer4 error-limit 1 on-error mark-down
 CFG
   local i=1
   for p in "$@"; do echo "  server app$i 127.0.0.1:$p"; i=$((i + 1)); done
