@@ -48,8 +48,12 @@ prepare_root() {
 run_server() {
   as_pg mkdir -p -m 700 "$S"
   if up; then port=$(cat "$R/port"); return; fi
-  port=${PG_PORT:-54329}
-  while ! port_free "$port"; do port=$((port + 1)); done
+  # the port of its last start when still free, so that servers pointed at it find it again
+  port=$(cat "$R/port" 2>/dev/null || true)
+  if [ -z "$port" ] || ! port_free "$port"; then
+    port=${PG_PORT:-54329}
+    while ! port_free "$port"; do port=$((port + 1)); done
+  fi
   local durability=""
   [ "$mode" = --throwaway ] && durability="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
   as_pg "$B/pg_ctl" -D "$D" -l "$R/log" -w -t 60 -o "-p $port -k $S -c listen_addresses=127.0.0.1 $durability" start >/dev/null
