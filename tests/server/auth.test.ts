@@ -14,7 +14,8 @@ const cookieOf = (res: request.Response) =>
 describe('signing in and out', () => {
   it('answers health with the database up', async () => {
     const res = await request(env.app).get('/api/health').expect(200);
-    expect(res.body).toEqual({ ok: true, db: 'up' });
+    // no DATABASE_REPLICA_URL here: Debrief reads the primary
+    expect(res.body).toEqual({ ok: true, db: 'up', replica: { state: 'none', lagSeconds: null, debriefReadsFrom: 'primary' } });
   });
 
   it('when a demo user signs in, the session cookie changes and /me names their shop and roles', async () => {
