@@ -122,8 +122,9 @@ export function lookupSuffix(q: Quantity, suffix: string): SuffixLookup {
 
 /** IEC 60062 letters that stand in the place of the decimal point, per quantity, with their factor. */
 export const CODE_LETTERS: Readonly<Partial<Record<Quantity, Readonly<Record<string, number>>>>> = {
-  // IEC 60062: R, K, M, G, T for resistors; lowercase k is common practice; m is milli (case matters).
-  resistance: { R: 1, r: 1, m: 1e-3, k: 1e3, K: 1e3, M: 1e6, G: 1e9, T: 1e12 },
+  // IEC 60062: L, R, K, M, G, T for resistors (L for milliohms, as in 4L7 = 4.7 mΩ, shunts and
+  // coil primaries); lowercase k is common practice; m is milli too (case matters: M is mega).
+  resistance: { L: 1e-3, R: 1, r: 1, m: 1e-3, k: 1e3, K: 1e3, M: 1e6, G: 1e9, T: 1e12 },
   // IEC 60062: p, n, µ, m for capacitors (u is the common ASCII stand-in for µ).
   capacitance: { p: 1e-12, n: 1e-9, µ: 1e-6, u: 1e-6, m: 1e-3 },
   // 3V3 for 3.3 V is common practice on schematics and meters' labels.

@@ -20,6 +20,24 @@ describe('IEC 60062:2016 letter-and-digit codes', () => {
     'reads the capacitor code %s as %d F (IEC 60062)', (text, farads) => close(value(text, 'capacitance'), farads),
   );
 
+  it.each([['4L7', 0.0047], ['L47', 0.00047], ['4L7Ω', 0.0047]])(
+    'reads the milliohm code %s as %d Ω (IEC 60062:2016 RKM code, L = mΩ)', (text, ohms) => {
+      const r = parseReading(text, 'resistance');
+      expect(r.ok).toBe(true);
+      close(value(text, 'resistance'), ohms);
+    },
+  );
+
+  it('keeps the two significant figures of 4L7 (IEC 60062)', () => {
+    const r = parseReading('4L7', 'resistance');
+    expect(r.ok && r.reading.significantDigits).toBe(2);
+  });
+
+  it('keeps L a resistance letter only: 4L7 for a capacitor is refused with a suggestion (IEC 60062)', () => {
+    const r = parseReading('4L7', 'capacitance');
+    expect(r.ok).toBe(false);
+  });
+
   it('tells m (milli) from M (mega), as IEC 60062 and the SI Brochure do', () => {
     close(value('2m2', 'resistance'), 0.0022);
     close(value('2M2', 'resistance'), 2.2e6);
