@@ -41,7 +41,7 @@ export default defineConfig({
         // kept (network first, the cached copy only when the network fails).
         runtimeCaching: [
           {
-            urlPattern: ({ url, request }) => request.method === 'GET' && url.pathname === '/api/auth/me',
+            urlPattern: ({ url, request }) => request.method === 'GET' && url.pathname === '/api/auth/session',
             handler: 'NetworkFirst',
             options: { cacheName: 'sw-session', networkTimeoutSeconds: 4, expiration: { maxEntries: 1 } },
           },

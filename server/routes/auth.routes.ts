@@ -65,6 +65,18 @@ export function authRoutes(deps: AppDeps, csrfToken: TokenFn): Router {
     res.json(me);
   });
 
+  // What the app asks on every load: who is signed in, or { user: null }. Not being signed in is
+  // an answer here, not an error, so the sign-in page logs no failed request. /me stays 401.
+  r.get('/session', async (req, res) => {
+    if (!req.user) {
+      res.json({ user: null });
+      return;
+    }
+    const me = await describeMe(req.user, req.session.shopId);
+    req.session.shopId = me.currentShopId ?? undefined;
+    res.json(me);
+  });
+
   r.post('/shop', requireUser, async (req, res) => {
     const { shopId } = parseInput(SwitchShopInput, req.body);
     const membership = await Membership.findOne({ where: { shopId, userId: req.user!.id } });

@@ -2,18 +2,15 @@ import { queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Me } from '@shared/schema/auth';
 import type { Area, Permission, Role } from '@shared/schema/role-names';
 import { AREA_ROLES, hasAnyRole, may } from '@shared/schema/role-names';
-import { api, ApiError, setCsrfToken } from './api-client';
+import { api, setCsrfToken } from './api-client';
 
 /** The signed-in person, or null when signed out. */
 export const meQuery = queryOptions({
   queryKey: ['auth', 'me'] as const,
   queryFn: async (): Promise<Me | null> => {
-    try {
-      return await api.get<Me>('/api/auth/me');
-    } catch (e) {
-      if (e instanceof ApiError && e.status === 401) return null;
-      throw e;
-    }
+    // answers { user: null } when nobody is signed in: no failed request on the sign-in page
+    const answer = await api.get<Me | { user: null }>('/api/auth/session');
+    return answer.user ? (answer as Me) : null;
   },
   staleTime: 5 * 60_000,
 });
@@ -42,7 +39,7 @@ export function useSignOut(): () => Promise<void> {
     try {
       await api.post('/api/auth/logout');
     } finally {
-      // the service worker keeps the last /api/auth/me answer for offline reloads; a shared
+      // the service worker keeps the last /api/auth/session answer for offline reloads; a shared
       // phone must not show the previous person as signed in
       if (typeof caches !== 'undefined') await caches.delete('sw-session').catch(() => false);
       setCsrfToken(null);

@@ -30,7 +30,7 @@ async function serviceWorkerReady(page: Page): Promise<void> {
   await page.goto('/bench');
   await expect(page.getByRole('heading', { name: 'Bench' })).toBeVisible();
   expect(await page.evaluate(() => !!navigator.serviceWorker.controller)).toBe(true);
-  await expect.poll(() => page.evaluate(async () => !!(await (await caches.open('sw-session')).match('/api/auth/me'))), { timeout: 20_000 }).toBe(true);
+  await expect.poll(() => page.evaluate(async () => !!(await (await caches.open('sw-session')).match('/api/auth/session'))), { timeout: 20_000 }).toBe(true);
 }
 
 /** The fake receiver's mailbox through the admin mail API, signed in over the API (no page needed). */

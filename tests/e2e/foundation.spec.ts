@@ -18,6 +18,16 @@ test('the sign-in page is readable and passes an accessibility scan', async ({ p
   await axe(page);
 });
 
+test('the sign-in page logs no console error before anyone signs in', async ({ page }) => {
+  const errors: string[] = [];
+  page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
+  page.on('response', (r) => { if (r.status() >= 400) errors.push(`${r.status()} ${r.url()}`); });
+  await page.goto('/sign-in');
+  await expect(page.getByRole('heading', { name: 'Sign in' })).toBeVisible();
+  await page.waitForLoadState('networkidle');
+  expect(errors).toEqual([]);
+});
+
 test('a wrong password shows a clear message and keeps the person on the sign-in page', async ({ page }) => {
   await page.goto('/sign-in');
   await page.getByLabel('E-mail').fill('tech@larkspur.test');

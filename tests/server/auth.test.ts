@@ -33,6 +33,15 @@ describe('signing in and out', () => {
     expect(me.body.shops).toEqual([expect.objectContaining({ name: 'Larkspur Lane Powersports', roles: ['technician'] })]);
   });
 
+  it('the session question answers 200 with no user before sign-in, and the person after it', async () => {
+    const anonymous = await request(env.app).get('/api/auth/session').expect(200);
+    expect(anonymous.body).toEqual({ user: null });
+    const c = await signInAs(env.app, 'tech');
+    const me = await c.get('/api/auth/session').expect(200);
+    expect(me.body.user.email).toBe('tech@larkspur.test');
+    expect(me.body.currentShopId).toEqual(expect.any(String));
+  });
+
   it('after sign-out the old session cookie is refused', async () => {
     const c = await signInAs(env.app, 'lead');
     const me = await c.get('/api/auth/me').expect(200);
