@@ -12,6 +12,8 @@ export interface DiagnosisSummary {
   id: string; status: string; procedureTitle: string; procedureSlug: string; versionId: string; versionNumber: number;
   vehicleLabel: string; vehicleModel: string; technicianName: string; complaint: string;
   startedAt: string; endedAt: string | null; lastActivityAt: string; stepsAnswered: number; endingStepId: string | null;
+  /** The title of the step waiting for an answer, while the diagnosis is active (else null). */
+  currentStepTitle: string | null;
 }
 
 
@@ -43,7 +45,14 @@ const SUMMARY_SQL = `
   SELECT d.id, d.status, p.title AS procedure_title, p.slug AS procedure_slug, v.id AS version_id, v.number AS version_number,
          ve.label AS vehicle_label, ve.model AS vehicle_model, u.name AS technician_name, d.complaint,
          d.started_at, d.ended_at, d.last_activity_at, d.ending_step_id, d.technician_id,
-         (SELECT count(*)::int FROM diagnosis_steps s WHERE s.diagnosis_id = d.id AND NOT s.superseded) AS steps_answered
+         (SELECT count(*)::int FROM diagnosis_steps s WHERE s.diagnosis_id = d.id AND NOT s.superseded) AS steps_answered,
+         -- the step waiting: where the latest answer routes ('' when it routes nowhere), or the start
+         CASE WHEN d.status = 'active' THEN (
+           SELECT st->>'title' FROM jsonb_array_elements(v.document->'steps') st
+            WHERE st->>'id' = COALESCE((SELECT COALESCE(s.next_step_id, '') FROM diagnosis_steps s
+                                         WHERE s.diagnosis_id = d.id AND NOT s.superseded ORDER BY s.seq DESC LIMIT 1),
+                                       v.document->>'start')
+            LIMIT 1) END AS current_step_title
     FROM diagnoses d
     JOIN procedure_versions v ON v.id = d.procedure_version_id
     JOIN procedures p ON p.id = v.procedure_id
@@ -55,6 +64,7 @@ interface SummaryRow {
   id: string; status: string; procedure_title: string; procedure_slug: string; version_id: string; version_number: number;
   vehicle_label: string; vehicle_model: string; technician_name: string; complaint: string; started_at: Date; ended_at: Date | null;
   last_activity_at: Date; ending_step_id: string | null; technician_id: string; steps_answered: number;
+  current_step_title: string | null;
 }
 
 const iso = (d: Date | null) => (d ? new Date(d).toISOString() : null);
@@ -64,7 +74,7 @@ function toSummary(r: SummaryRow): DiagnosisSummary {
     id: r.id, status: r.status, procedureTitle: r.procedure_title, procedureSlug: r.procedure_slug, versionId: r.version_id,
     versionNumber: r.version_number, vehicleLabel: r.vehicle_label, vehicleModel: r.vehicle_model, technicianName: r.technician_name,
     complaint: r.complaint, startedAt: iso(r.started_at)!, endedAt: iso(r.ended_at), lastActivityAt: iso(r.last_activity_at)!,
-    stepsAnswered: r.steps_answered, endingStepId: r.ending_step_id,
+    stepsAnswered: r.steps_answered, endingStepId: r.ending_step_id, currentStepTitle: r.current_step_title,
   };
 }
 

@@ -1,6 +1,6 @@
-import { Op, UniqueConstraintError } from 'sequelize';
+import { Op, UniqueConstraintError, col, fn } from 'sequelize';
 import type { ShopContext } from '../auth/context';
-import { Vehicle } from '../models';
+import { Diagnosis, Vehicle } from '../models';
 import { AppError, notFound } from '../lib/errors';
 import type { VehicleDto, VehicleInput } from '@shared/schema/vehicle';
 import { audit } from './audit';
@@ -16,7 +16,14 @@ export async function listVehicles(ctx: ShopContext, q?: string): Promise<Vehicl
     order: [['label', 'ASC']],
     limit: 500,
   });
-  return rows.map(toVehicleDto);
+  const last = await Diagnosis.findAll({
+    where: { shopId: ctx.shopId, vehicleId: rows.map((v) => v.id) },
+    attributes: ['vehicleId', [fn('max', col('started_at')), 'lastDiagnosedAt']],
+    group: ['vehicleId'],
+    raw: true,
+  }) as unknown as { vehicleId: string; lastDiagnosedAt: Date }[];
+  const lastBy = new Map(last.map((l) => [l.vehicleId, new Date(l.lastDiagnosedAt).toISOString()]));
+  return rows.map((v) => ({ ...toVehicleDto(v), lastDiagnosedAt: lastBy.get(v.id) ?? null }));
 }
 
 function duplicateLabel(label: string): AppError {

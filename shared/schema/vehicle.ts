@@ -28,4 +28,6 @@ export const VehicleListQuery = z.object({ q: z.string().trim().max(80).optional
 
 export interface VehicleDto {
   id: string; label: string; model: string; frameNumber: string; hours: number | null; notes: string; updatedAt: string;
+  /** When the machine's latest diagnosis started (in the list only; null when never diagnosed). */
+  lastDiagnosedAt?: string | null;
 }

@@ -61,7 +61,8 @@ async function startNoSpark(page: Page): Promise<string> {
   await page.getByRole('link', { name: 'Start a diagnosis' }).click();
   await page.getByLabel('Symptom').fill('spark');
   await page.getByRole('radio', { name: /^No spark/ }).check();
-  await page.getByLabel('Machine', { exact: true }).selectOption({ label: 'W-01 — Wren 50 two-stroke scooter' });
+  await page.getByLabel('Find a machine').fill('w-01');
+  await page.getByRole('radio', { name: /^W-01 Wren 50/ }).check();
   await page.getByLabel("Complaint in the customer's words").fill('It kicks over but never fires');
   await shot(page, 'bench-start');
   await page.getByRole('button', { name: 'Start the diagnosis' }).click();
@@ -228,6 +229,11 @@ test('a diagnosis started on one phone can be continued on another', async ({ pa
   const other = await browser.newContext({ viewport: { width: 360, height: 780 }, hasTouch: true });
   const phone = await other.newPage();
   await signIn(phone, 'tech');
+  // the card says who, when and where it waits, so two on the same machine can be told apart
+  const card = phone.getByRole('link', { name: /Waiting at: Isolate the stop circuit/ }).first();
+  await expect(card).toContainText(/last answer \d{1,2}[:.]\d{2}/);
+  await expect(card).toContainText('Casey Tech · started');
+  await shot(phone, 'bench-elsewhere');
   await phone.getByRole('button', { name: 'Continue W-01 on this phone' }).first().click();
   await expect(phone).toHaveURL(new RegExp(`/bench/d/${id}$`));
   await expect(phone.getByRole('heading', { name: 'Isolate the stop circuit' })).toBeVisible();
@@ -250,7 +256,8 @@ test('without signal a diagnosis still starts from what the phone kept, and reac
   await page.reload();
   await page.getByLabel('Symptom').fill('spark');
   await page.getByRole('radio', { name: /^No spark/ }).check();
-  await page.getByLabel('Machine', { exact: true }).selectOption({ label: 'W-02 — Wren 50 two-stroke scooter' });
+  await page.getByLabel('Find a machine').fill('W-02');
+  await page.getByRole('radio', { name: /^W-02 Wren 50/ }).check();
   await page.getByLabel("Complaint in the customer's words").fill('Died at the lights, no spark since');
   await page.getByRole('button', { name: 'Start the diagnosis' }).click();
   await expect(page).toHaveURL(/\/bench\/d\/[0-9a-f-]{36}$/);
@@ -285,5 +292,47 @@ test('a printed job card carries a QR code and a link that open the start with m
   await shot(page, 'bench-job-card');
   await page.goto(url);
   await expect(page.getByRole('radio', { name: /^No spark/ })).toBeChecked();
-  await expect(page.getByLabel('Machine', { exact: true })).toHaveValue(w02.id);
+  await expect(page.getByRole('radio', { name: /^W-02 Wren 50/ })).toBeChecked();
+});
+
+test('the start page finds a machine by model or frame number, whole cards are the targets, and a technician adds a machine inline', async ({ page }) => {
+  await signIn(page, 'tech');
+  await page.goto('/bench/start');
+  const procedure = page.getByRole('radio', { name: /^No spark/ });
+  await expect(procedure).toBeVisible();
+  // the whole card is the target (48 px on the Bench), and its circle is not squeezed
+  const card = page.locator('label', { has: procedure });
+  expect((await card.boundingBox())!.height).toBeGreaterThanOrEqual(48);
+  const circle = (await procedure.boundingBox())!;
+  expect(Math.min(circle.width, circle.height)).toBeGreaterThanOrEqual(20);
+  await card.getByText(/version \d+/).click();
+  await expect(procedure).toBeChecked();
+
+  await page.getByLabel('Find a machine').fill('quad');
+  const machines = page.getByRole('radiogroup', { name: 'Machines' }).getByRole('radio');
+  await expect(machines.first()).toBeVisible();
+  for (const name of await machines.evaluateAll((els) => els.map((e) => e.closest('label')!.textContent!))) expect(name).toMatch(/quad/i);
+  await page.getByLabel('Find a machine').press('Tab');
+  await page.keyboard.press('Space'); // the keyboard picks a machine too
+  await expect(machines.first()).toBeChecked();
+  await shot(page, 'bench-start-search');
+  await axe(page);
+
+  await page.getByLabel('Find a machine').fill('Q-77');
+  await expect(page.getByText('No machine matches "Q-77".')).toBeVisible();
+  await page.getByRole('button', { name: 'Add a machine' }).click();
+  await expect(page.getByLabel('Label')).toHaveValue('Q-77');
+  await page.getByLabel('Model').fill('Badger 110 youth quad');
+  await shot(page, 'bench-start-add');
+  await page.getByRole('button', { name: 'Add this machine' }).click();
+  await expect(page.getByRole('radio', { name: /^Q-77 Badger/ })).toBeChecked();
+  await expect(page.getByText('never diagnosed').first()).toBeVisible();
+});
+
+test('an author on the Bench is not offered to add a machine (the server refuses it)', async ({ page }) => {
+  await signIn(page, 'author');
+  await page.goto('/bench/start');
+  await expect(page.getByLabel('Find a machine')).toBeVisible();
+  await expect(page.getByRole('radio', { name: /^No spark/ })).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Add a machine' })).toHaveCount(0);
 });

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import pg from 'pg';
 import { randomUUID } from 'node:crypto';
 import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, type Client } from './harness';
-import { publishBenchProcedure, startBody, stepBody, type BenchWorld } from './bench-fixtures';
+import { benchDoc, publishBenchProcedure, startBody, stepBody, type BenchWorld } from './bench-fixtures';
 import { CoachingNote, Diagnosis, DiagnosisStep, User } from '../../server/models';
 import { markAbandoned } from '../../server/services/housekeeping';
 
@@ -103,6 +103,19 @@ describe('stepping through the pinned version', () => {
     const after = (await tech.get('/api/bench/procedures/bench-test').expect(200)).body as typeof before;
     expect(after.branchCounts.sparkTest?.['answer:none']).toBe((before.branchCounts.sparkTest?.['answer:none'] ?? 0) + 1);
     expect(after.branchCounts.exciter?.['band:ok']).toBeGreaterThan(0);
+  });
+
+  it('the list of diagnoses in progress names the technician and the step waiting, so two on the same machine differ', async () => {
+    const fresh = await start();
+    const moved = await start();
+    await step(moved, 'killLead', null);
+    const list = (await tech.get('/api/diagnoses?status=active&mine=1').expect(200)).body as { id: string; technicianName: string; currentStepTitle: string | null; lastActivityAt: string }[];
+    const title = (stepId: string) => benchDoc.steps.find((s) => s.id === stepId)!.title;
+    expect(list.find((d) => d.id === fresh)).toMatchObject({ technicianName: expect.stringMatching(/\S/), currentStepTitle: title('killLead') });
+    expect(list.find((d) => d.id === moved)).toMatchObject({ currentStepTitle: title('sparkTest') });
+    // the start page's machine list says when each machine was last diagnosed
+    const vehicles = (await tech.get('/api/vehicles').expect(200)).body as { id: string; lastDiagnosedAt: string | null }[];
+    expect(vehicles.find((v) => v.id === world.vehicleId)?.lastDiagnosedAt).toEqual(expect.any(String));
   });
 
   it('stores a step sent twice as one row, and refuses the same id with another payload', async () => {

@@ -44,6 +44,21 @@ function ResumeList({ diagnoses }: { diagnoses: LocalDiagnosis[] }) {
   );
 }
 
+const timeOfDay = (iso: string) => new Date(iso).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
+
+/** One diagnosis on another phone: who, when it was last answered, and the step it waits at. */
+function ElsewhereCard({ d }: { d: DiagnosisSummary }) {
+  return (
+    <Link to={`/bench/d/${d.id}/record`} className="block min-h-14 rounded-lg border border-line bg-panel p-3">
+      <strong>{d.vehicleLabel}</strong> · {d.procedureTitle}
+      <span className="block">Waiting at: <strong>{d.currentStepTitle ?? 'its ending'}</strong></span>
+      <span className="block text-ink-soft">
+        {d.technicianName} · started {timeOfDay(d.startedAt)} · last answer {timeOfDay(d.lastActivityAt)} · {d.stepsAnswered} {d.stepsAnswered === 1 ? 'step' : 'steps'}
+      </span>
+    </Link>
+  );
+}
+
 /** My diagnoses in progress on another phone: brought onto this one with what the server holds. */
 function ElsewhereList({ diagnoses }: { diagnoses: DiagnosisSummary[] }) {
   const navigate = useNavigate();
@@ -64,7 +79,7 @@ function ElsewhereList({ diagnoses }: { diagnoses: DiagnosisSummary[] }) {
       <ul className="space-y-2">
         {diagnoses.map((d) => (
           <li key={d.id} className="space-y-1">
-            <DiagnosisLink d={d} />
+            <ElsewhereCard d={d} />
             <button type="button" onClick={() => void resume(d.id)} className="min-h-12 w-full rounded-lg border-2 border-signal bg-panel px-3 text-lg font-semibold">
               Continue {d.vehicleLabel} on this phone
             </button>

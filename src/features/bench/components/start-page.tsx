@@ -1,38 +1,19 @@
 import { useEffect, useMemo, useState, type FormEvent } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
-import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { api, ApiError } from '../../../lib/api-client';
+import { useQuery } from '@tanstack/react-query';
+import { ApiError } from '../../../lib/api-client';
+import { useSession } from '../../../lib/session';
 import { PageHeader, Alert } from '../../../components/ui/card';
 import { Button } from '../../../components/ui/button';
 import { Field, Input, Select, Textarea } from '../../../components/ui/field';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
-import type { Meter, Vehicle } from '../api/types';
+import type { Meter } from '../api/types';
+import { MachinePicker } from './machine-picker';
 import { startDiagnosis, type StartForm } from '../lib/start';
 import { filterProcedures, keepVersions } from '../lib/kit';
 
 const IGNITION = [['', 'Any ignition'], ['magneto-cdi', 'Magneto CDI'], ['battery-cdi', 'Battery CDI'], ['magneto-inductive', 'Magneto inductive'], ['battery-inductive', 'Battery inductive']] as const;
-
-function QuickVehicle({ onAdded }: { onAdded(v: Vehicle): void }) {
-  const [f, setF] = useState({ label: '', model: '', frameNumber: '', hours: '' });
-  const [error, setError] = useState<ApiError | null>(null);
-  const issue = (path: string) => error?.issues.find((i) => i.path === path)?.message;
-  const add = async () => {
-    try {
-      onAdded(await api.post<Vehicle>('/api/vehicles', { label: f.label, model: f.model, frameNumber: f.frameNumber, hours: f.hours === '' ? null : Number(f.hours.replace(',', '.')) }));
-    } catch (e) { setError(e instanceof ApiError ? e : null); }
-  };
-  return (
-    <div className="space-y-2 rounded-lg border-2 border-dashed border-line p-3">
-      <Field label="Label" error={issue('label')}><Input value={f.label} onChange={(e) => setF({ ...f, label: e.target.value })} /></Field>
-      <Field label="Model"><Input value={f.model} onChange={(e) => setF({ ...f, model: e.target.value })} /></Field>
-      <Field label="Frame number or VIN" error={issue('frameNumber')}><Input value={f.frameNumber} onChange={(e) => setF({ ...f, frameNumber: e.target.value.toUpperCase() })} /></Field>
-      <Field label="Hours" error={issue('hours')}><Input inputMode="decimal" value={f.hours} onChange={(e) => setF({ ...f, hours: e.target.value })} /></Field>
-      {error && !error.issues.length && <Alert>{error.message}</Alert>}
-      <Button variant="secondary" className="min-h-12 w-full" onClick={() => void add()}>Add this machine</Button>
-    </div>
-  );
-}
 
 type SetField = (k: keyof StartForm) => (e: { target: { value: string } }) => void;
 
@@ -49,8 +30,8 @@ function ProcedureFieldset({ slug, set }: { slug: string; set: SetField }) {
       <Field label="Ignition system"><Select value={filter.ignitionSystem} onChange={(e) => setFilter({ ...filter, ignitionSystem: e.target.value })}>{IGNITION.map(([v, l]) => <option key={v} value={v}>{l}</option>)}</Select></Field>
       <div role="radiogroup" aria-label="Published procedures" className="grid gap-2">
         {shown?.map((p) => (
-          <label key={p.slug} className="flex min-h-14 items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 text-lg font-semibold has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
-            <input type="radio" name="procedure" className="h-6 w-6" value={p.slug} checked={slug === p.slug} onChange={set('slug')} />
+          <label key={p.slug} className="flex min-h-16 cursor-pointer items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 py-2 text-lg font-semibold has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
+            <input type="radio" name="procedure" className="h-6 w-6 shrink-0 accent-signal" value={p.slug} checked={slug === p.slug} onChange={set('slug')} />
             <span>{p.title} <span className="block text-base font-normal text-ink-soft">{p.symptom} · version {p.number}</span></span>
           </label>
         ))}
@@ -80,14 +61,13 @@ function ConditionsFieldset({ form, meterId, meters, set }: { form: StartForm; m
 export function StartPage() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
-  const qc = useQueryClient();
+  const { may } = useSession();
   const vehicles = useQuery(benchQueries.vehicles());
   const meters = useQuery(benchQueries.meters());
   const [form, setForm] = useState<StartForm>({
     slug: params.get('procedure') ?? '', vehicleId: params.get('vehicle') ?? '', meterId: '', complaint: '',
     engine: 'cold', ambientC: '20', startingMethod: 'kick', batteryVolts: '',
   });
-  const [adding, setAdding] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const set: SetField = (k) => (e) => setForm({ ...form, [k]: e.target.value });
   const meterId = form.meterId || meters.data?.[0]?.id || '';
@@ -108,15 +88,7 @@ export function StartPage() {
     <form onSubmit={(e) => void start(e)} className="mx-auto max-w-xl space-y-4 pb-16">
       <PageHeader title="Start a diagnosis" />
       <ProcedureFieldset slug={form.slug} set={set} />
-      <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
-        <legend className="px-1 text-lg font-bold">Machine</legend>
-        <Field label="Machine"><Select value={form.vehicleId} onChange={set('vehicleId')} required>
-          <option value="">Pick a machine</option>
-          {vehicles.data?.map((v) => <option key={v.id} value={v.id}>{v.label} — {v.model}</option>)}
-        </Select></Field>
-        {adding ? <QuickVehicle onAdded={(v) => { void qc.invalidateQueries({ queryKey: benchQueries.vehicles().queryKey }); setForm({ ...form, vehicleId: v.id }); setAdding(false); }} />
-          : <Button variant="secondary" className="min-h-12 w-full" onClick={() => setAdding(true)}>Quickly add a machine</Button>}
-      </fieldset>
+      <MachinePicker vehicles={vehicles.data} value={form.vehicleId} onChange={(vehicleId) => setForm((f) => ({ ...f, vehicleId }))} canAdd={may('vehicle.edit')} />
       <ConditionsFieldset form={form} meterId={meterId} meters={meters.data} set={set} />
       <LimitsNotice />
       {error && <Alert title="Not started">{error}</Alert>}

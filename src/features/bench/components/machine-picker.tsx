@@ -1,0 +1,56 @@
+import { useMemo, useState } from 'react';
+import { Input } from '../../../components/ui/field';
+import { Button } from '../../../components/ui/button';
+import type { Vehicle } from '../api/types';
+import { matchMachines } from '../lib/machines';
+import { QuickVehicle } from './quick-vehicle';
+
+/** How many matches the list shows at once: a thumb's scroll, not the whole fleet. */
+const SHOWN = 6;
+
+const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
+
+function MachineOption({ v, checked, onPick }: { v: Vehicle; checked: boolean; onPick(): void }) {
+  return (
+    <label className="flex min-h-16 cursor-pointer items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 py-2 has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
+      <input type="radio" name="machine" className="h-6 w-6 shrink-0 accent-signal" value={v.id} checked={checked} onChange={onPick} />
+      <span className="min-w-0 text-lg font-semibold">{v.label} <span className="font-normal">{v.model}</span>
+        <span className="block truncate text-base font-normal text-ink-soft">
+          {v.frameNumber || 'no frame number'} · {v.lastDiagnosedAt ? `last diagnosed ${day(v.lastDiagnosedAt)}` : 'never diagnosed'}
+        </span>
+      </span>
+    </label>
+  );
+}
+
+/**
+ * The machine of a diagnosis: a search over fleet label, model and frame number or VIN, with
+ * the matches as whole-card choices (48 px and more) and, for those who may, a machine added inline.
+ */
+export function MachinePicker({ vehicles, value, onChange, canAdd }: {
+  vehicles: Vehicle[] | undefined; value: string; onChange(id: string): void; canAdd: boolean;
+}) {
+  const [query, setQuery] = useState('');
+  const [adding, setAdding] = useState(false);
+  const matches = useMemo(() => matchMachines(vehicles ?? [], query), [vehicles, query]);
+  const picked = vehicles?.find((v) => v.id === value);
+  // the picked machine stays in view whatever the search, first
+  const shown = [...(picked ? [picked] : []), ...matches.filter((v) => v.id !== value)].slice(0, SHOWN);
+  return (
+    <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
+      <legend className="px-1 text-lg font-bold">Machine</legend>
+      <label className="block space-y-1">
+        <span className="font-semibold">Find a machine</span>
+        <Input type="search" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Fleet label, model, VIN or frame number" enterKeyHint="search" autoComplete="off" />
+      </label>
+      <div role="radiogroup" aria-label="Machines" className="grid gap-2">
+        {shown.map((v) => <MachineOption key={v.id} v={v} checked={v.id === value} onPick={() => onChange(v.id)} />)}
+        {vehicles && matches.length === 0 && <p>No machine matches "{query}".</p>}
+        {matches.length > SHOWN && <p className="text-ink-soft">{matches.length - SHOWN + (picked && !matches.includes(picked) ? 1 : 0)} more: type more of the label or number.</p>}
+      </div>
+      {canAdd && (adding
+        ? <QuickVehicle initialLabel={matches.length === 0 ? query.trim().toUpperCase() : ''} onAdded={(v) => { onChange(v.id); setQuery(''); setAdding(false); }} />
+        : <Button variant="secondary" className="min-h-12 w-full" onClick={() => setAdding(true)}>Add a machine</Button>)}
+    </fieldset>
+  );
+}
