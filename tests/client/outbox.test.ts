@@ -239,6 +239,33 @@ describe('the Bench outbox holds a refused diagnosis and goes on with the others
   });
 });
 
+describe('the Bench outbox backs off while the server cannot be reached', () => {
+  it('the wait doubles from 4 s with each failed pass, half of it random, and stops growing at 5 min', () => {
+    expect([1, 2, 3, 4].map((n) => outbox.retryDelay(n, () => 1))).toEqual([4000, 8000, 16000, 32000]);
+    expect([1, 2, 3, 4].map((n) => outbox.retryDelay(n, () => 0))).toEqual([2000, 4000, 8000, 16000]);
+    expect(outbox.retryDelay(30, () => 1)).toBe(300_000);
+    expect(outbox.retryDelay(30, () => 0)).toBe(150_000);
+  });
+
+  it('each failed pass waits longer than the last, and one pass that goes through forgets the failures', async () => {
+    await queue('d1', 'W-02', [start('d1')]);
+    server.mode = 'offline';
+    const ceilings: number[] = [];
+    for (let i = 0; i < 9; i++) {
+      await outbox.flushOutbox();
+      const s = outbox.syncStore.get();
+      expect(s.failedPasses).toBe(i + 1);
+      ceilings.push(Math.min(300_000, 4000 * 2 ** i));
+      expect(s.retryInMs).toBeGreaterThanOrEqual(ceilings[i]! / 2);
+      expect(s.retryInMs).toBeLessThanOrEqual(ceilings[i]!);
+    }
+    expect(ceilings.at(-1)).toBe(300_000); // the cap is reached, not passed
+    server.mode = 'up';
+    await outbox.flushOutbox();
+    expect(outbox.syncStore.get()).toMatchObject({ waiting: 0, failedPasses: 0, retryInMs: null });
+  });
+});
+
 describe('the Bench database on the phone upgrades in place', () => {
   it('v2 database upgrades to v3 keeping queued messages', async () => {
     // Version 2 exactly as phones have it: four stores, the outbox indexed by diagnosis.

@@ -27,9 +27,31 @@ export interface SyncStatus {
   aside: AsideDiagnosis[];
   online: boolean;
   syncing: boolean;
+  /** Passes in a row that ended on a transient failure (no signal, server busy); 0 after a clean pass. */
+  failedPasses: number;
+  /** When the next pass is due after a transient failure (ms from that failure), or null. */
+  retryInMs: number | null;
 }
 
-let status: SyncStatus = { waiting: 0, refused: [], aside: [], online: typeof navigator === 'undefined' ? true : navigator.onLine, syncing: false };
+let status: SyncStatus = {
+  waiting: 0, refused: [], aside: [], online: typeof navigator === 'undefined' ? true : navigator.onLine, syncing: false,
+  failedPasses: 0, retryInMs: null,
+};
+
+/** The first wait after a failed pass, and the longest: a phone in a dead spot tries every 5 min, not every 4 s. */
+export const RETRY_BASE_MS = 4000;
+export const RETRY_CAP_MS = 5 * 60_000;
+
+/**
+ * The wait before the next pass after `failedPasses` failed ones: exponential, capped, with
+ * "equal jitter" (half fixed, half random) so that a shop's phones coming back into signal at
+ * once do not all knock on the server in the same second.
+ * Example: retryDelay(1, () => 0) is 2000; retryDelay(3, () => 1) is 16000; retryDelay(20, () => 1) is 300000.
+ */
+export function retryDelay(failedPasses: number, random: () => number = Math.random): number {
+  const ceiling = Math.min(RETRY_CAP_MS, RETRY_BASE_MS * 2 ** Math.max(0, failedPasses - 1));
+  return Math.round(ceiling / 2 + random() * (ceiling / 2));
+}
 const listeners = new Set<() => void>();
 
 function publish(next: Partial<SyncStatus>): void {
@@ -145,16 +167,19 @@ async function attempt(db: Db, item: OutboxItem): Promise<'sent' | 'refused' | '
   }
 }
 
-/** One pass over the outbox in order; a transient failure ends it, a refusal only holds its diagnosis. */
-async function drain(db: Db): Promise<void> {
+/**
+ * One pass over the outbox in order; a transient failure ends it (answering false), a refusal
+ * only holds its diagnosis.
+ */
+async function drain(db: Db): Promise<boolean> {
   const held = new Set<string>();
   let after = 0;
   for (;;) {
     const item = await nextToSend(db, after, held);
-    if (!item) return;
+    if (!item) return true;
     after = item.seq!;
     const outcome = await attempt(db, item);
-    if (outcome === 'transient') return;
+    if (outcome === 'transient') return false;
     if (outcome === 'sent') {
       // A sent message changes only the count: no refusal or set-aside list to read again.
       publish({ waiting: await db.count('outbox') });
@@ -167,6 +192,22 @@ async function drain(db: Db): Promise<void> {
 
 let running: Promise<void> | null = null;
 let again = false;
+let retryTimer: ReturnType<typeof setTimeout> | null = null;
+let started = false;
+
+/** After a pass: back off when it failed, forget the failures when it went through. */
+function scheduleRetry(clean: boolean): void {
+  if (retryTimer) clearTimeout(retryTimer);
+  retryTimer = null;
+  if (clean) {
+    publish({ failedPasses: 0, retryInMs: null });
+    return;
+  }
+  const failedPasses = status.failedPasses + 1;
+  const retryInMs = retryDelay(failedPasses);
+  publish({ failedPasses, retryInMs });
+  if (started) retryTimer = setTimeout(() => { retryTimer = null; if (sendable(status) > 0) void flushOutbox(); }, retryInMs);
+}
 
 /**
  * Sends what waits, oldest first, one at a time. A call while a pass runs asks for one more pass
@@ -181,12 +222,14 @@ export function flushOutbox(): Promise<void> {
     publish({ syncing: true });
     try {
       const db = await benchDb();
+      let clean: boolean;
       do {
         again = false;
         await refresh(db); // what was just queued shows at once
-        await drain(db);
-      } while (again);
+        clean = await drain(db);
+      } while (again && clean);
       await refresh(db);
+      scheduleRetry(clean);
     } finally {
       publish({ syncing: false });
       running = null;
@@ -273,14 +316,14 @@ export async function setAsideRecord(diagnosisId: string): Promise<SetAsideRecor
   };
 }
 
-let started = false;
-
-/** Starts syncing: now, whenever the network comes back, and every few seconds while anything can go. */
+/**
+ * Starts syncing: now, whenever the network comes back (with the back-off forgotten), and after a
+ * failed pass once its back-off has passed (retryDelay).
+ */
 export function startOutbox(): void {
   if (started || typeof window === 'undefined') return;
   started = true;
-  window.addEventListener('online', () => { publish({ online: true }); void flushOutbox(); });
+  window.addEventListener('online', () => { publish({ online: true, failedPasses: 0 }); void flushOutbox(); });
   window.addEventListener('offline', () => publish({ online: false }));
-  setInterval(() => { if (sendable(status) > 0) void flushOutbox(); }, 4000);
   void flushOutbox();
 }
