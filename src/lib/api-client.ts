@@ -38,7 +38,10 @@ async function toApiError(res: Response): Promise<ApiError> {
   try {
     const body = (await res.json()) as { error?: { code: string; message: string; issues?: ErrorIssue[]; requestId?: string } };
     if (body.error) {
-      return new ApiError(res.status, body.error.code, body.error.message, body.error.issues ?? [], body.error.requestId ?? '', body.error as Record<string, unknown>);
+      const { requestId = '' } = body.error;
+      // a 500 asks the person to quote the request id: the message they see carries it
+      const message = res.status >= 500 && requestId ? `${body.error.message} Request id: ${requestId}.` : body.error.message;
+      return new ApiError(res.status, body.error.code, message, body.error.issues ?? [], requestId, body.error as Record<string, unknown>);
     }
   } catch {
     // not JSON: fall through

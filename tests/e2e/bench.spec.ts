@@ -315,6 +315,7 @@ test('the start page finds a machine by model or frame number, whole cards are t
   await page.getByLabel('Find a machine').press('Tab');
   await page.keyboard.press('Space'); // the keyboard picks a machine too
   await expect(machines.first()).toBeChecked();
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360); // nothing wider than the phone
   await shot(page, 'bench-start-search');
   await axe(page);
 

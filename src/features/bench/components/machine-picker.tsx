@@ -37,7 +37,8 @@ export function MachinePicker({ vehicles, value, onChange, canAdd }: {
   // the picked machine stays in view whatever the search, first
   const shown = [...(picked ? [picked] : []), ...matches.filter((v) => v.id !== value)].slice(0, SHOWN);
   return (
-    <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
+    // min-w-0: a fieldset is as wide as its widest content by default, and a long VIN would push the page sideways
+    <fieldset className="min-w-0 space-y-3 rounded-lg border border-line bg-panel p-3">
       <legend className="px-1 text-lg font-bold">Machine</legend>
       <label className="block space-y-1">
         <span className="font-semibold">Find a machine</span>
