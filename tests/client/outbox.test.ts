@@ -266,6 +266,20 @@ describe('the Bench outbox backs off while the server cannot be reached', () => 
   });
 });
 
+describe('a failed write to the phone\'s storage', () => {
+  it('is refused with words a technician can act on, shows in the sync status, and clears with the next good write', async () => {
+    // a value IndexedDB cannot store (structured clone refuses a function): a real failed write
+    const broken = { ...localDiagnosis('d1', 'W-02'), rows: [() => undefined] } as unknown as DbModule.LocalDiagnosis;
+    const err = await db.commitLocal(broken, [start('d1')]).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(db.PhoneStorageError);
+    expect((err as Error).message).toMatch(/could not save the last answer.*Answer again/);
+    expect(outbox.syncStore.get().storageProblem).toBe((err as Error).message);
+    expect(await queuedIds()).toEqual([]); // nothing half-stored: the diagnosis and its message go together or not at all
+    await queue('d1', 'W-02', [start('d1')]);
+    expect(outbox.syncStore.get().storageProblem).toBeNull();
+  });
+});
+
 describe('the Bench database on the phone upgrades in place', () => {
   it('v2 database upgrades to v3 keeping queued messages', async () => {
     // Version 2 exactly as phones have it: four stores, the outbox indexed by diagnosis.

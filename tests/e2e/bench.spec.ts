@@ -330,6 +330,19 @@ test('the start page finds a machine by model or frame number, whole cards are t
   await expect(page.getByText('never diagnosed').first()).toBeVisible();
 });
 
+test('a Bench screen that fails to draw shows what happened and a way back, not a blank page', async ({ page }) => {
+  await signIn(page, 'tech');
+  // a server answer the screen cannot draw (the procedure list is not a list)
+  await page.route('**/api/bench/procedures', (route) => route.fulfill({ status: 200, contentType: 'application/json', body: '{"unexpected":true}' }));
+  await page.goto('/bench/start');
+  await expect(page.getByRole('alert').getByText('This Bench screen could not be shown')).toBeVisible();
+  await expect(page.getByRole('navigation', { name: 'Areas' })).toBeVisible(); // the shell still stands
+  await shot(page, 'bench-error-boundary');
+  await page.unroute('**/api/bench/procedures');
+  await page.getByRole('link', { name: 'Back to Bench' }).click();
+  await expect(page.getByRole('heading', { name: 'Bench' })).toBeVisible();
+});
+
 test('an author on the Bench is not offered to add a machine (the server refuses it)', async ({ page }) => {
   await signIn(page, 'author');
   await page.goto('/bench/start');

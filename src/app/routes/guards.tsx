@@ -4,6 +4,7 @@ import type { Area } from '@shared/schema/role-names';
 import { useSession, homeFor } from '../../lib/session';
 import { Spinner, EmptyState } from '../../components/ui/card';
 import { LinkButton } from '../../components/ui/button';
+import { AreaErrorBoundary } from './area-error-boundary';
 
 export function RequireSession({ children }: { children: ReactNode }) {
   const { me, isLoading } = useSession();
@@ -16,8 +17,13 @@ export function RequireSession({ children }: { children: ReactNode }) {
 /** Shows an area only to the roles that may use it; the server checks again on every request. */
 export function AreaGate({ area, children }: { area: Area; children: ReactNode }) {
   const { can } = useSession();
+  const { pathname } = useLocation();
   if (!can(area)) return <NoAccess />;
-  return <Suspense fallback={<Spinner label="Loading" />}>{children}</Suspense>;
+  return (
+    <AreaErrorBoundary area={area} resetKey={pathname}>
+      <Suspense fallback={<Spinner label="Loading" />}>{children}</Suspense>
+    </AreaErrorBoundary>
+  );
 }
 
 export function HomeRedirect() {

@@ -109,7 +109,40 @@ export async function listLocalDiagnoses(): Promise<LocalDiagnosis[]> {
  * refusal keeps its new messages aside too: the server would refuse them again, and the file the
  * lead downloads must hold every answer.
  */
+/** Why the phone could not keep what was just answered, in words a technician can act on. */
+export class PhoneStorageError extends Error {
+  constructor(override readonly cause: unknown) {
+    const quota = cause instanceof DOMException && cause.name === 'QuotaExceededError';
+    super(quota
+      ? 'This phone is out of storage, so the last answer was not saved. Free some space (photos, other apps), then answer again.'
+      : 'This phone could not save the last answer (its browser storage refused it). Answer again; if it keeps failing, leave private browsing or restart the browser, and tell your lead.');
+  }
+}
+
+type StorageListener = (problem: string | null) => void;
+const storageListeners = new Set<StorageListener>();
+/** Hears every failed (a message) and every good (null) write of a diagnosis to the phone. */
+export function onStorageResult(listener: StorageListener): () => void {
+  storageListeners.add(listener);
+  return () => storageListeners.delete(listener);
+}
+
+/**
+ * Keeps the diagnosis and its messages in one transaction. A failed write throws a
+ * PhoneStorageError and tells onStorageResult's listeners, so the screen says so.
+ */
 export async function commitLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
+  try {
+    await writeLocal(diagnosis, messages);
+  } catch (e) {
+    const problem = new PhoneStorageError(e);
+    for (const l of storageListeners) l(problem.message);
+    throw problem;
+  }
+  for (const l of storageListeners) l(null);
+}
+
+async function writeLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
   const db = await benchDb();
   const tx = db.transaction(['diagnoses', 'outbox', 'aside'], 'readwrite');
   const now = new Date().toISOString();

@@ -1,5 +1,5 @@
 import { api, ApiError } from '../api-client';
-import { benchDb, type AsideItem, type LocalDiagnosis, type OutboxItem, type OutboxMessage } from './db';
+import { benchDb, onStorageResult, type AsideItem, type LocalDiagnosis, type OutboxItem, type OutboxMessage } from './db';
 
 type Db = Awaited<ReturnType<typeof benchDb>>;
 
@@ -31,11 +31,13 @@ export interface SyncStatus {
   failedPasses: number;
   /** When the next pass is due after a transient failure (ms from that failure), or null. */
   retryInMs: number | null;
+  /** The last write to the phone's storage failed: what to tell the technician (null once one succeeds). */
+  storageProblem: string | null;
 }
 
 let status: SyncStatus = {
   waiting: 0, refused: [], aside: [], online: typeof navigator === 'undefined' ? true : navigator.onLine, syncing: false,
-  failedPasses: 0, retryInMs: null,
+  failedPasses: 0, retryInMs: null, storageProblem: null,
 };
 
 /** The first wait after a failed pass, and the longest: a phone in a dead spot tries every 5 min, not every 4 s. */
@@ -58,6 +60,8 @@ function publish(next: Partial<SyncStatus>): void {
   status = { ...status, ...next };
   for (const l of listeners) l();
 }
+
+onStorageResult((storageProblem) => { if (storageProblem !== status.storageProblem) publish({ storageProblem }); });
 
 /** Messages that can still go now: those waiting less those held behind a refusal. */
 export function sendable(s: SyncStatus): number {

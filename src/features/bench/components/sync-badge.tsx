@@ -38,12 +38,14 @@ function SyncPill({ s }: { s: SyncStatus }) {
  */
 export function SyncBadge({ diagnosisId }: { diagnosisId?: string }) {
   const s = useSyncExternalStore(syncStore.subscribe, syncStore.get);
-  if (s.refused.length === 0 && s.aside.length === 0) return <SyncPill s={s} />;
+  const storage = s.storageProblem && <p role="alert" data-testid="storage-problem" className="rounded-lg border-2 border-stop bg-panel p-3 font-semibold text-stop">{s.storageProblem}</p>;
+  if (s.refused.length === 0 && s.aside.length === 0 && !storage) return <SyncPill s={s} />;
   const mine = (r: { diagnosisId: string }) => Number(r.diagnosisId === diagnosisId);
   const refused = [...s.refused].sort((a, b) => mine(b) - mine(a));
   return (
     <div className="w-full basis-full space-y-2">
       <SyncPill s={s} />
+      {storage}
       {refused.map((r) => <RefusedCard key={r.diagnosisId} refused={r} held={heldWords(r.heldKinds)} current={r.diagnosisId === diagnosisId} />)}
       {s.aside.length > 0 && <AsideList aside={s.aside} current={diagnosisId} />}
     </div>
