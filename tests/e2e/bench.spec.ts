@@ -319,14 +319,15 @@ test('the start page finds a machine by model or frame number, whole cards are t
   await shot(page, 'bench-start-search');
   await axe(page);
 
-  await page.getByLabel('Find a machine').fill('Q-77');
-  await expect(page.getByText('No machine matches "Q-77".')).toBeVisible();
+  const label = `Q-${String(Date.now()).slice(-5)}`; // new on every run, so a kept e2e database does not refuse it as a duplicate
+  await page.getByLabel('Find a machine').fill(label.toLowerCase());
+  await expect(page.getByText(`No machine matches "${label.toLowerCase()}".`)).toBeVisible();
   await page.getByRole('button', { name: 'Add a machine' }).click();
-  await expect(page.getByLabel('Label')).toHaveValue('Q-77');
+  await expect(page.getByLabel('Label')).toHaveValue(label);
   await page.getByLabel('Model').fill('Badger 110 youth quad');
   await shot(page, 'bench-start-add');
   await page.getByRole('button', { name: 'Add this machine' }).click();
-  await expect(page.getByRole('radio', { name: /^Q-77 Badger/ })).toBeChecked();
+  await expect(page.getByRole('radio', { name: new RegExp(`^${label} Badger`) })).toBeChecked();
   await expect(page.getByText('never diagnosed').first()).toBeVisible();
 });
 
@@ -343,10 +344,3 @@ test('a Bench screen that fails to draw shows what happened and a way back, not 
   await expect(page.getByRole('heading', { name: 'Bench' })).toBeVisible();
 });
 
-test('an author on the Bench is not offered to add a machine (the server refuses it)', async ({ page }) => {
-  await signIn(page, 'author');
-  await page.goto('/bench/start');
-  await expect(page.getByLabel('Find a machine')).toBeVisible();
-  await expect(page.getByRole('radio', { name: /^No spark/ })).toBeVisible();
-  await expect(page.getByRole('button', { name: 'Add a machine' })).toHaveCount(0);
-});

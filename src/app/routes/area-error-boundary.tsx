@@ -2,6 +2,7 @@ import { Component, type ErrorInfo, type ReactNode } from 'react';
 import type { Area } from '@shared/schema/role-names';
 import { EmptyState } from '../../components/ui/card';
 import { Button, LinkButton } from '../../components/ui/button';
+import { ApiError } from '../../lib/api-client';
 
 const AREA_NAME: Record<Area, string> = { bench: 'Bench', drafting: 'Drafting', debrief: 'Debrief', shop: 'Shop' };
 
@@ -34,7 +35,8 @@ export class AreaErrorBoundary extends Component<Props, State> {
     return (
       <div role="alert">
         <EmptyState title={`This ${name} screen could not be shown`}>
-          <p>{error.message || 'Something went wrong while drawing it.'}</p>
+          {/* the server's words say what to do (and a 500's request id); a script error's would not */}
+          <p>{error instanceof ApiError ? error.message : 'Something went wrong while drawing it. Try again; if it keeps happening, tell your lead which screen it was.'}</p>
           {this.props.area === 'bench' && <p className="mt-2">Answers already saved stay on this phone and keep syncing.</p>}
           <div className="mt-4 flex flex-wrap justify-center gap-3">
             <LinkButton to={`/${this.props.area}`} className="min-h-12">Back to {name}</LinkButton>

@@ -12,10 +12,10 @@ const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: 
 
 function MachineOption({ v, checked, onPick }: { v: Vehicle; checked: boolean; onPick(): void }) {
   return (
-    <label className="flex min-h-16 cursor-pointer items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 py-2 has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
+    <label className="flex min-h-16 min-w-0 cursor-pointer items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 py-2 has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
       <input type="radio" name="machine" className="h-6 w-6 shrink-0 accent-signal" value={v.id} checked={checked} onChange={onPick} />
       <span className="min-w-0 text-lg font-semibold">{v.label} <span className="font-normal">{v.model}</span>
-        <span className="block truncate text-base font-normal text-ink-soft">
+        <span className="block break-words text-base font-normal text-ink-soft">
           {v.frameNumber || 'no frame number'} · {v.lastDiagnosedAt ? `last diagnosed ${day(v.lastDiagnosedAt)}` : 'never diagnosed'}
         </span>
       </span>
