@@ -71,7 +71,8 @@ haproxy -db -f "$ROOT/haproxy.cfg" &
 balancer=$!; pids+=($balancer)
 wait_healthy "$PORT" 20
 
-cat > "$ROOT/run.env" <<ENV
+# written aside and moved into place, so a reader never sees it half-written
+cat > "$ROOT/run.env.part" <<ENV
 PORT=$PORT
 APP1_PORT=$APP1_PORT
 APP1_PID=$app1
@@ -85,5 +86,6 @@ REPLICA_ROOT=$ROOT/replica
 DATA_DIR=$ROOT/files
 STARTED_IN_MS=$(( ($(date +%s%N) - began) / 1000000 ))
 ENV
+mv "$ROOT/run.env.part" "$ROOT/run.env"
 say "cluster up in $(( ($(date +%s%N) - began) / 1000000 )) ms: http://localhost:$PORT (HAProxy) → app servers on $APP1_PORT and $APP2_PORT; primary on port $(cat "$ROOT/primary/port"), replica on port $(cat "$ROOT/replica/port"); Ctrl-C stops it all"
 wait "$balancer" || true

@@ -65,7 +65,7 @@ describe('a production start without dev packages', () => {
       await new Promise((r) => setTimeout(r, 250));
       health = await fetch(`http://127.0.0.1:${port}/api/health`).then(async (r) => ({ status: r.status, body: await r.json() }), () => null);
     }
-    expect(health, `the server did not answer; its output:\n${output}`).toEqual({ status: 200, body: { ok: true, db: 'up' } });
+    expect(health, `the server did not answer; its output:\n${output}`).toMatchObject({ status: 200, body: { ok: true, db: 'up', replica: { state: 'none', debriefReadsFrom: 'primary' } } });
     expect(output).toContain('Sparkwright is up');
     expect(output).not.toContain('local object store');
   }, 60_000);

@@ -16,7 +16,9 @@ async function signal(context: BrowserContext, page: Page, on: boolean): Promise
 async function startOffline(page: Page, machine: string): Promise<string> {
   await page.getByRole('link', { name: 'Start a diagnosis' }).click();
   await page.getByRole('radio', { name: /^No spark/ }).check();
-  await page.getByLabel('Machine', { exact: true }).selectOption({ label: machine });
+  const label = machine.split(' ')[0]!;
+  await page.getByLabel('Find a machine').fill(label);
+  await page.getByRole('radio', { name: new RegExp(`^${label} `) }).check();
   await page.getByLabel("Complaint in the customer's words").fill('No spark since this morning');
   await page.getByRole('button', { name: 'Start the diagnosis' }).click();
   await expect(page).toHaveURL(/\/bench\/d\/[0-9a-f-]{36}$/);

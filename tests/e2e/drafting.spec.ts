@@ -160,7 +160,6 @@ test('an author builds a procedure from the palette, fixes a band gap, previews 
   await page.getByTestId('preview-phone').getByRole('button', { name: 'Enter reading' }).click();
   await page.getByTestId('preview-phone').getByRole('button', { name: 'Yes' }).click();
   await expect(page.getByTestId('preview-ending')).toContainText('New finding');
-  await expect(node(page, 'finding2')).toHaveClass(/selected|/);
   await shot(page, 'drafting-preview');
   await page.getByRole('button', { name: 'Close preview' }).click();
 
@@ -212,9 +211,9 @@ test('a lead reviewing version 2 sees what changed since version 1, on the canva
   await expect(lead.getByTestId('diff-list')).toContainText(`changed (title)${changedId}`);
   await expect(node(lead, changedId)).toContainText('changed');
   await expect(lead.getByTestId('diff-list')).toContainText(`removed${removedId}`);
-  await expect(node(lead, `removed:${removedId}`)).toContainText('removed'); // drawn, faded, where it stood in version 1
-  await shot(lead, 'drafting-review-diff');
+  // Only steps in view are drawn, so the list entry brings the removed step into view first.
   await lead.getByTestId('diff-list').getByRole('button', { name: new RegExp(`^removed${removedId}`) }).click();
+  await expect(node(lead, `removed:${removedId}`)).toContainText('removed'); // drawn, faded, where it stood in version 1
   await expect(node(lead, `removed:${removedId}`)).toBeInViewport();
   await shot(lead, 'drafting-review-removed');
   // the lead opens version 1 from the version picker; it is read only and can be retired
