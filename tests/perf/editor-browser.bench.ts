@@ -41,7 +41,7 @@ async function startApp(port: number): Promise<ChildProcess> {
 }
 
 async function importProcedure(page: Page, n: number): Promise<string> {
-  const title = `Bench ${n} steps`;
+  const title = `Bench ${n} steps ${Date.now()}`;
   await page.evaluate(async ({ file, title }) => {
     const { token } = await (await fetch('/api/auth/csrf')).json() as { token: string };
     const res = await fetch('/api/procedures/import', { method: 'POST', headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': token }, body: JSON.stringify({ file, title }) });
