@@ -14,6 +14,20 @@ const SIZES = (process.env.EDITOR_BENCH_SIZES ?? '36,300,1000').split(',').map(N
 const RUNS = Number(process.env.EDITOR_BENCH_RUNS ?? 3);
 const LAUNCH_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 
+const OPEN_TIMEOUT_MS = 60_000;
+const EDIT_TIMEOUT_MS = 60_000;
+
+/** Progress to stderr, so a slow stage shows where it is; the table stays alone on stdout. */
+const started = Date.now();
+const progress = (what: string) => process.stderr.write(`[editor-bench ${((Date.now() - started) / 1000).toFixed(1)} s] ${what}\n`);
+
+/** Every wait in here ends: `what` names the stage in the error when it does not finish in `ms`. */
+async function within<T>(what: string, ms: number, p: Promise<T>): Promise<T> {
+  let timer: NodeJS.Timeout | undefined;
+  const limit = new Promise<never>((_, reject) => { timer = setTimeout(() => reject(new Error(`${what}: no answer in ${ms / 1000} s`)), ms); });
+  try { return await Promise.race([p, limit]); } finally { clearTimeout(timer); }
+}
+
 const freePort = () => new Promise<number>((resolve, reject) => {
   const s = createServer();
   s.once('error', reject);
@@ -55,32 +69,42 @@ async function importProcedure(page: Page, n: number): Promise<string> {
  * node React Flow has put in the page is measured (visible) and the set stays the same for two frames.
  */
 async function timeOpen(page: Page, title: string): Promise<number> {
+  progress(`open "${title}": the Drafting list`);
   await page.goto('/drafting');
   const link = page.getByRole('link', { name: title });
   await link.waitFor();
   await page.waitForResponse((r) => /\/assets\/editor-page-[^/]+\.js$/.test(r.url()), { timeout: 5000 }).catch(() => undefined);
-  await page.evaluate(() => {
+  await page.evaluate((limitMs) => {
     const w = window as unknown as { __opened: Promise<number> };
-    w.__opened = new Promise<number>((resolve) => {
+    w.__opened = new Promise<number>((resolve, reject) => {
       document.addEventListener('click', () => {
         const t0 = performance.now();
         let last = '';
         let stable = 0;
         let firstStable = 0;
+        let state = 'no step in the page yet';
         const tick = () => {
           const nodes = [...document.querySelectorAll<HTMLElement>('.react-flow__node')];
-          const drawn = nodes.length > 0 && nodes.every((n) => n.style.visibility !== 'hidden' && n.offsetWidth > 0);
+          const unseen = nodes.filter((n) => n.style.visibility === 'hidden' || n.offsetWidth === 0).length;
+          const drawn = nodes.length > 0 && unseen === 0;
           const key = drawn ? `${nodes.length}:${document.querySelector('.react-flow__viewport')?.getAttribute('style') ?? ''}` : '';
           if (drawn && key === last) { stable += 1; } else { stable = 0; firstStable = performance.now(); }
           last = key;
-          if (stable >= 2) resolve(firstStable - t0); else requestAnimationFrame(tick);
+          state = `${nodes.length} steps in the page, ${unseen} hidden or unmeasured; view ${document.querySelector('.react-flow__viewport')?.getAttribute('style') ?? 'absent'}; at ${location.pathname}`;
+          if (stable >= 2) resolve(firstStable - t0);
+          else if (performance.now() - t0 > limitMs) reject(new Error(`the steps were not drawn in ${limitMs / 1000} s: ${state}`));
+          else requestAnimationFrame(tick);
         };
         requestAnimationFrame(tick);
       }, { capture: true, once: true });
     });
-  });
+  }, OPEN_TIMEOUT_MS);
+  progress('open: click');
   await link.click();
-  return page.evaluate(() => (window as unknown as { __opened: Promise<number> }).__opened);
+  const ms = await within('open: waiting in the page for the steps drawn', OPEN_TIMEOUT_MS + 10_000,
+    page.evaluate(() => (window as unknown as { __opened: Promise<number> }).__opened));
+  progress(`open: drawn in ${ms.toFixed(0)} ms`);
+  return ms;
 }
 
 /** Counts animation frames while `act` runs; returns frames per second and the longest frame. */
@@ -91,7 +115,7 @@ async function frames(page: Page, act: () => Promise<void>): Promise<{ fps: numb
     const tick = (t: number) => { w.__frames.push(t); if (w.__counting) requestAnimationFrame(tick); };
     requestAnimationFrame(tick);
   });
-  await act();
+  await within('pan/zoom', 30_000, act());
   const ts = await page.evaluate(() => { const w = window as unknown as { __frames: number[]; __counting: boolean }; w.__counting = false; return w.__frames; });
   const span = ts[ts.length - 1]! - ts[0]!;
   let longest = 0;
@@ -129,13 +153,14 @@ async function zoom(page: Page): Promise<void> {
 
 /** Adds a Finding from the palette (an unreachable step: one more error) and times until the count shows it. */
 async function timeEdit(page: Page): Promise<{ ms: number; longestMs: number }> {
+  progress('edit: add a Finding');
   const counts = page.getByTestId('lint-counts');
   await counts.waitFor();
-  await page.evaluate(() => {
+  await page.evaluate((limitMs) => {
     const w = window as unknown as { __edited: Promise<{ ms: number; longestMs: number }> };
     const el = document.querySelector('[data-testid="lint-counts"]')!;
     const before = el.textContent;
-    w.__edited = new Promise((resolve) => {
+    w.__edited = new Promise((resolve, reject) => {
       document.addEventListener('click', () => {
         const t0 = performance.now();
         let prev = t0;
@@ -143,14 +168,18 @@ async function timeEdit(page: Page): Promise<{ ms: number; longestMs: number }> 
         const tick = (t: number) => {
           longest = Math.max(longest, t - prev); prev = t;
           if (el.isConnected && el.textContent !== before) resolve({ ms: performance.now() - t0, longestMs: longest });
+          else if (performance.now() - t0 > limitMs) reject(new Error(`the soundness count did not change in ${limitMs / 1000} s: still "${before}", counts ${el.isConnected ? 'in the page' : 'replaced'}`));
           else requestAnimationFrame(tick);
         };
         requestAnimationFrame(tick);
       }, { capture: true, once: true });
     });
-  });
+  }, EDIT_TIMEOUT_MS);
   await page.getByTestId('palette-finding').click();
-  return page.evaluate(() => (window as unknown as { __edited: Promise<{ ms: number; longestMs: number }> }).__edited);
+  const r = await within('edit: waiting in the page for the new soundness count', EDIT_TIMEOUT_MS + 10_000,
+    page.evaluate(() => (window as unknown as { __edited: Promise<{ ms: number; longestMs: number }> }).__edited));
+  progress(`edit: count shown in ${r.ms.toFixed(0)} ms`);
+  return r;
 }
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
@@ -158,10 +187,18 @@ const f0 = (x: number) => x.toFixed(0).padStart(5);
 
 async function main(): Promise<void> {
   const port = await freePort();
+  progress(`starting the app on ${port}`);
   const app = await startApp(port);
   const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: LAUNCH_ARGS });
   try {
     const page = await browser.newPage({ viewport: { width: 1440, height: 900 }, baseURL: `http://localhost:${port}` });
+    page.setDefaultTimeout(30_000);
+    // tsx compiles this file keeping function names: a named function inside a page.evaluate callback
+    // becomes __name(fn, 'fn'), which the page lacks. Without this the click handlers below threw
+    // ("__name is not defined") and their promises never settled: the run hung after the header.
+    await page.addInitScript('globalThis.__name = (fn) => fn;');
+    page.on('dialog', (d) => { progress(`a ${d.type()} dialog: "${d.message()}", accepted`); void d.accept(); });
+    page.on('pageerror', (e) => progress(`page error: ${e.message}`));
     await page.goto('/sign-in');
     await page.getByLabel('E-mail').fill('author@larkspur.test');
     await page.getByLabel('Password').fill(DEMO_PASSWORD);
@@ -170,13 +207,16 @@ async function main(): Promise<void> {
     console.log(`Chromium ${browser.version()} at 1440 x 900; ${RUNS} runs per size, medians (longest frame in brackets)`);
     console.log('steps   open ms   pan fps (longest ms)   zoom fps (longest ms)   add→soundness ms (longest frame ms)');
     for (const n of SIZES) {
-      const title = await importProcedure(page, n);
+      progress(`import ${n} steps`);
+      const title = await within(`import of ${n} steps`, 120_000, importProcedure(page, n));
       const r = { open: [] as number[], pan: [] as number[], panLong: [] as number[], zoom: [] as number[], zoomLong: [] as number[], edit: [] as number[], editLong: [] as number[] };
       for (let run = 0; run < RUNS; run++) {
         r.open.push(await timeOpen(page, title));
         await page.waitForTimeout(500); // the check that follows the first paint
+        progress('pan');
         const p = await frames(page, () => pan(page));
         r.pan.push(p.fps); r.panLong.push(p.longestMs);
+        progress('zoom');
         const z = await frames(page, () => zoom(page));
         r.zoom.push(z.fps); r.zoomLong.push(z.longestMs);
         await page.waitForTimeout(300);
