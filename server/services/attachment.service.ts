@@ -20,11 +20,26 @@ function checkName(name: string): void {
   }
 }
 
-/** The type the bytes really are; a renamed document is refused whatever its extension says. */
+// Markup a browser would run if it ever took the file for a page. A camera picture never holds it
+// (XMP metadata is XML, but none of these tags), so a picture that does is a polyglot.
+const MARKUP = /<(?:script|html|svg|body|iframe|object|embed|!doctype|\?php)[\s/>]|javascript:/i;
+const PNG_END = Buffer.from([0, 0, 0, 0, 0x49, 0x45, 0x4e, 0x44, 0xae, 0x42, 0x60, 0x82]);
+
+/** A PNG ends with its IEND chunk, a WebP is as long as its RIFF header says; anything after is smuggled. */
+function wholeImage(mime: string, bytes: Buffer): boolean {
+  if (mime === 'image/png') return bytes.subarray(-PNG_END.length).equals(PNG_END);
+  if (mime === 'image/webp') return bytes.length >= 12 && bytes.readUInt32LE(4) + 8 === bytes.length;
+  return true; // a camera JPEG may carry more after its end (a second picture, a motion clip)
+}
+
+/** The type the bytes really are; a renamed document, or a picture that is also a page or script, is refused. */
 async function imageType(file: UploadedFile, field: string): Promise<string> {
   const t = await fileTypeFromBuffer(file.buffer);
   if (!t || !IMAGE_TYPES[t.mime]) {
     throw new AppError(415, 'not_an_image', `The ${field} is not a JPEG, PNG or WebP picture (its contents say ${t ? t.mime : 'unknown'}). Take or pick a photo instead.`);
+  }
+  if (MARKUP.test(file.buffer.toString('latin1')) || !wholeImage(t.mime, file.buffer)) {
+    throw new AppError(415, 'not_an_image', `The ${field} holds more than a picture (web page or script code, or data after the image). Take or pick the photo again.`);
   }
   return t.mime;
 }

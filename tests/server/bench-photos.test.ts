@@ -93,6 +93,33 @@ describe('photos of a diagnosis', () => {
     expect(storedObjectCount(env)).toBe(objects);
   });
 
+  // A tiny JPEG by its markers only (SOI, a comment, EOI): enough for the byte check to call it a JPEG.
+  const jpegWith = (inside: string) => Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xfe, 0x00, 0x10]), Buffer.from(inside), Buffer.from([0xff, 0xd9])]);
+  const HOSTILE: { what: string; name: string; bytes: Buffer; status: number; message: RegExp; asThumb?: boolean }[] = [
+    { what: 'a text file renamed .jpg', name: 'plug.jpg', bytes: Buffer.from('Plug gap 0.6 mm, cap 5k\n'), status: 415, message: /not a JPEG, PNG or WebP/ },
+    { what: 'an SVG with a script', name: 'plug.svg', bytes: Buffer.from('<svg xmlns="http://www.w3.org/2000/svg"><script>alert(1)</script></svg>'), status: 415, message: /not a JPEG, PNG or WebP/ },
+    { what: 'an SVG renamed .png', name: 'plug.png', bytes: Buffer.from('<?xml version="1.0"?><svg xmlns="http://www.w3.org/2000/svg" onload="alert(1)"/>'), status: 415, message: /not a JPEG, PNG or WebP/ },
+    { what: 'an HTML page', name: 'plug.html', bytes: Buffer.from('<!doctype html><html><body><script>fetch("/api/shop/members")</script></body></html>'), status: 415, message: /not a JPEG, PNG or WebP/ },
+    { what: 'a JPEG that is also a web page (polyglot)', name: 'plug.jpg', bytes: jpegWith('<html><script>alert(1)</script></html>'), status: 415, message: /holds more than a picture/ },
+    { what: 'a PNG with a script after its end (polyglot)', name: 'plug.png', bytes: Buffer.concat([TINY_PNG, Buffer.from('<script>alert(1)</script>')]), status: 415, message: /holds more than a picture/ },
+    { what: 'a PNG with an archive after its end', name: 'plug.png', bytes: Buffer.concat([TINY_PNG, Buffer.from('PK\x03\x04hidden.class')]), status: 415, message: /holds more than a picture/ },
+    { what: 'a polyglot sent as the thumbnail of a good photo', name: 'thumb.jpg', bytes: jpegWith('<svg onload=alert(1)>'), status: 415, message: /thumbnail holds more than a picture/, asThumb: true },
+    { what: 'an oversize file', name: 'big.png', bytes: Buffer.concat([TINY_PNG, Buffer.alloc(MAX_PHOTO_BYTES + 1)]), status: 413, message: /too large.*8 MB/ },
+    { what: '../ in the name', name: '../../photo.png', bytes: TINY_PNG, status: 400, message: /folder path/ },
+  ];
+
+  it.each(HOSTILE)('refuses $what with a clear message, and nothing reaches the store or the attachments table', async ({ name, bytes, status, message, asThumb }) => {
+    const rows = await Attachment.count();
+    const objects = storedObjectCount(env);
+    const res = asThumb
+      ? await upload({ bytes: TINY_PNG, name: 'photo.png' }, {}, { bytes, name })
+      : name.includes('/') ? await rawUpload(name, bytes) : await upload({ bytes, name });
+    expect(res.status).toBe(status);
+    expect(expectEnvelope(res.body).message).toMatch(message);
+    expect(await Attachment.count()).toBe(rows);
+    expect(storedObjectCount(env)).toBe(objects);
+  });
+
   it('a member of another shop cannot add or read photos of this diagnosis (404)', async () => {
     const [a] = await Attachment.findAll({ limit: 1 });
     const other = await otherShopMember(env, ['technician']);
