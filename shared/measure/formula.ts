@@ -22,7 +22,9 @@ export type FormulaErrorCode =
   | 'wrong-arguments'
   | 'unknown-step'
   | 'unit-mismatch'
-  | 'math';
+  | 'math'
+  | 'too-long'
+  | 'too-deep';
 
 export interface FormulaError {
   readonly code: FormulaErrorCode;
@@ -119,11 +121,19 @@ function quantityLiteral(raw: string, text: string): Q {
 
 type Lookup = (id: string) => Q;
 
+/** A number as written: one too large for a double (or that rounds to zero) is refused, not used as ∞ or 0. */
+function numberLiteral(v: number, raw: string, text: string): number {
+  const shown = raw.length > 12 ? `${raw.slice(0, 12)}…` : raw;
+  if (!Number.isFinite(v)) throw new FormulaFailure('math', `The number ${shown} is too large for a formula.`, text.indexOf(raw));
+  if (v === 0 && /[1-9]/.test(raw.split(/e/i)[0]!)) throw new FormulaFailure('math', `The number ${shown} is too small for a formula.`, text.indexOf(raw));
+  return v;
+}
+
 function evaluate(node: jsep.Expression, look: Lookup, text: string): Q {
   switch (node.type) {
     case 'Literal': {
       const v = (node as jsep.Literal).value;
-      if (typeof v === 'number') return { value: v, dim: NONE };
+      if (typeof v === 'number') return { value: numberLiteral(v, String((node as jsep.Literal).raw), text), dim: NONE };
       if (typeof v === 'string') return quantityLiteral(v, text);
       throw new FormulaFailure('not-allowed', `${String((node as jsep.Literal).raw)} is not allowed in a formula.`, positionOf(text, String(v)));
     }
@@ -201,12 +211,35 @@ function references(node: jsep.Expression, out: Set<string>): void {
   }
 }
 
+/** The longest formula and the deepest bracket nesting accepted (the document schema allows 500 characters too). */
+export const MAX_FORMULA_LENGTH = 500;
+export const MAX_FORMULA_DEPTH = 20;
+
+function bracketDepth(text: string): number {
+  let depth = 0;
+  let deepest = 0;
+  for (const ch of text) {
+    if (ch === '(' || ch === '[') deepest = Math.max(deepest, ++depth);
+    else if (ch === ')' || ch === ']') depth = Math.max(0, depth - 1);
+  }
+  return deepest;
+}
+
 /**
  * Parses a formula and lists the step ids it reads. Syntax errors carry the position.
  * Example: `parseFormula('parallel(a, b)')` → `{ ok: true, references: ['a', 'b'] }`;
  * `parseFormula('a +')` → `{ ok: false, error: { code: 'syntax', position: 3, ... } }`.
  */
 export function parseFormula(expression: string): ParsedFormula {
+  // Both checks are one pass over at most the text; the parser and the evaluator recurse, so
+  // neither ever sees more than MAX_FORMULA_LENGTH characters or MAX_FORMULA_DEPTH brackets.
+  if (expression.length > MAX_FORMULA_LENGTH) {
+    return { ok: false, error: { code: 'too-long', message: `A formula has at most ${MAX_FORMULA_LENGTH} characters; this one has ${expression.length}. Split it over two Formula steps.` } };
+  }
+  const depth = bracketDepth(expression);
+  if (depth > MAX_FORMULA_DEPTH) {
+    return { ok: false, error: { code: 'too-deep', message: `Brackets may nest ${MAX_FORMULA_DEPTH} deep; this formula nests ${depth}. Split it over two Formula steps.` } };
+  }
   let ast: jsep.Expression;
   try {
     ast = jsep(expression);

@@ -56,7 +56,11 @@ const EXAMPLES: Readonly<Record<Quantity, string>> = {
 };
 
 // Digits may be grouped by spaces in threes (SI Brochure §5.4.4); the decimal sign is . or ,.
-const NUMBER = /^([+-]?)((?:\d{1,3}(?: \d{3})+|\d+)(?:[.,]\d*)?|[.,]\d+)(?:[eE]([+-]?\d{1,3}))?\s*(.*)$/;
+const NUMBER = /^([+-]?)((?:\d{1,3}(?: \d{3})+|\d+)(?:[.,]\d*)?|[.,]\d+)(?:[eE]([+-]?\d+))?\s*(.*)$/;
+
+/** The longest reading accepted (after trimming), and the longest raw text looked at at all. */
+export const MAX_READING_LENGTH = 64;
+const MAX_RAW_LENGTH = 256;
 
 interface NumberPart {
   sign: number;
@@ -92,6 +96,10 @@ function readNumber(text: string, q: Quantity): NumberPart | ParseReadingResult<
       `"${compact}" could be ${int}.${frac} or ${int}${frac}.`,
       `Type ${int}.${frac} for a decimal or ${int}${frac} for a whole number.`,
     );
+  }
+  // No reading needs an exponent past a few hundred; 1e999999 is a typing slip, not a value.
+  if (exp && Math.abs(Number(exp)) > 300) {
+    return fail('not-a-number', `The exponent in "${body}e${exp.length > 6 ? `${exp.slice(0, 6)}…` : exp}" is far outside any reading.`, `Type the value with a prefix instead, e.g. ${EXAMPLES[q]}.`);
   }
   return { sign: sign === '-' ? -1 : 1, mantissa: compact.replace(',', '.'), exponent: exp ? Number(exp) : 0, rest: rest.replace(/\s+/g, '') };
 }
@@ -145,9 +153,12 @@ function finish<Q extends Quantity>(text: string, q: Q, value: number, digits: s
  * `parseReading('0,55', 'length', 'mm')` → value 0.00055 (m).
  */
 export function parseReading<Q extends Quantity>(text: string, quantity: Q, unit?: string): ParseReadingResult<Q> {
+  // Length first, so that no work below grows with what was pasted in.
+  const tooLong = () => fail('too-long', `That is too long for a reading (at most ${MAX_READING_LENGTH} characters).`, `Type just the value, e.g. ${EXAMPLES[quantity]}.`);
+  if (text.length > MAX_RAW_LENGTH) return tooLong();
   const input = normaliseSymbols(text).trim();
   if (input === '') return fail('empty', 'Nothing was typed.', `Type the reading, e.g. ${EXAMPLES[quantity]}.`);
-  if (input.length > 64) return fail('too-long', 'That is too long for a reading.', `Type just the value, e.g. ${EXAMPLES[quantity]}.`);
+  if (input.length > MAX_READING_LENGTH) return tooLong();
 
   const code = readCode(input, quantity);
   if (code && code.factor === undefined) {
