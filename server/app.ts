@@ -14,6 +14,7 @@ import { configurePassport } from './auth/passport';
 import { CachedSessionStore } from './auth/session-store';
 import { requestId } from './middleware/request-id';
 import { errorHandler, apiNotFound } from './middleware/error-handler';
+import { storableText } from './middleware/storable-text';
 import { apiRouter } from './routes';
 
 export const CSRF_HEADER = 'x-csrf-token';
@@ -87,7 +88,7 @@ export function createApp(deps: AppDeps, first?: (app: Express) => void): Expres
 
   const csrf = csrfSync({ size: 32, getTokenFromRequest: (req) => req.headers[CSRF_HEADER] as string | undefined });
   if (deps.reads) app.use('/api', deps.reads.markWrites);
-  app.use('/api', express.json({ limit: '5mb' }));
+  app.use('/api', express.json({ limit: '5mb' }), storableText);
   app.use('/api', csrf.csrfSynchronisedProtection);
   app.use('/api', apiRouter(deps, csrf.generateToken));
   app.use('/api', apiNotFound);

@@ -6,6 +6,7 @@ import { ctxOf } from '../auth/context';
 import { allow, allowDiagnosisReading } from '../auth/policy';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
+import { assertStorableText } from '../middleware/storable-text';
 import { addPhoto, MAX_PHOTO_BYTES, readPhoto } from '../services/attachment.service';
 
 const PhotoFields = z.object({
@@ -20,6 +21,7 @@ export function attachmentRoutes(deps: AppDeps): Router {
   // preservePath keeps a sent folder in the name so that it can be refused instead of silently cut off.
   const upload = multer({ storage: multer.memoryStorage(), preservePath: true, limits: { fileSize: MAX_PHOTO_BYTES, files: 2, fields: 10, fieldSize: 1024 } });
   r.post('/', allow('diagnosis.work'), upload.fields([{ name: 'photo', maxCount: 1 }, { name: 'thumb', maxCount: 1 }]), async (req, res) => {
+    assertStorableText(req.body, 'The photo');
     const fields = parseInput(PhotoFields, req.body, 'The photo');
     const files = (req.files ?? {}) as Record<string, Express.Multer.File[] | undefined>;
     const out = await addPhoto(deps, ctxOf(req), {
