@@ -3,11 +3,9 @@ import { startTestApp, signInAs, expectEnvelope, Client, type TestEnv } from './
 import { routeTable } from './route-table';
 import { POLICY, ACTORS, expected, type Actor } from './authz-policy';
 import { REQUESTS, type CellContext } from './authz-requests';
-import { buildWorld, foreignShop, invitationToken, photoRow, resetToken, type ShopWorld } from './authz-world';
+import { buildWorld, foreignShop, invitationToken, photoRow, resetToken, uploadPhoto, type ShopWorld } from './authz-world';
 import { recordFigure } from './proof-figures';
-import { TINY_PNG } from './bench-fixtures';
 import { Shop, User } from '../../server/models';
-import { randomUUID } from 'node:crypto';
 
 let env: TestEnv;
 const callers = new Map<Actor, Client>();
@@ -37,11 +35,7 @@ beforeAll(async () => {
   for (const a of ACTORS) callers.set(a, await signedIn(a, shopId));
   const tech = callers.get('technician')!;
   const techId = (await User.findOne({ where: { email: 'tech@larkspur.test' } }))!.id;
-  own = await buildWorld(env, shopId, techId, async (diagnosisId) => {
-    const res = await tech.agent.post('/api/attachments').set('X-CSRF-Token', tech.csrf).field('id', randomUUID()).field('diagnosisId', diagnosisId)
-      .attach('photo', TINY_PNG, 'photo.png').attach('thumb', TINY_PNG, 'thumb.png').expect(201);
-    return (res.body as { id: string }).id;
-  });
+  own = await buildWorld(env, shopId, techId, uploadPhoto(tech));
   const other = await foreignShop(['admin', 'author', 'lead', 'technician', 'trainer']);
   foreign = await buildWorld(env, other.shopId, other.userId, (diagnosisId) => photoRow(other.shopId, diagnosisId));
 }, 120_000);

@@ -3,7 +3,8 @@ import { Attachment, Diagnosis, Invitation, Membership, Meter, PasswordReset, Pr
 import { hashToken, newLinkToken } from '../../server/lib/tokens';
 import type { Role } from '@shared/schema/roles';
 import { fixtureDoc, publishFixture } from './debrief.fixture';
-import type { TestEnv } from './harness';
+import type { Client, TestEnv } from './harness';
+import { TINY_PNG } from './bench-fixtures';
 
 /**
  * The rows of one shop that the authorization matrix points at: a published procedure, a
@@ -71,6 +72,16 @@ export async function buildWorld(env: TestEnv, shopId: string, technicianId: str
     shopId, procedureId, versionId, slug, vehicleId: vehicle.id, meterId: meter.id, diagnosisId, technicianId,
     attachmentId: await photo(diagnosisId), memberId: await member(),
     fresh: { diagnosis, version, member, invitation },
+  };
+}
+
+/** Uploads a photo and its thumbnail through the API, as the phone does; returns the photo's id. */
+export function uploadPhoto(c: Client): (diagnosisId: string) => Promise<string> {
+  return async (diagnosisId) => {
+    const res = await c.agent.post('/api/attachments').set('X-CSRF-Token', c.csrf).field('id', randomUUID()).field('diagnosisId', diagnosisId)
+      .attach('photo', TINY_PNG, 'photo.png').attach('thumb', TINY_PNG, 'thumb.png');
+    if (res.status !== 201) throw new Error(`photo upload failed: ${res.status} ${res.text}`);
+    return (res.body as { id: string }).id;
   };
 }
 
