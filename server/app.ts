@@ -12,6 +12,7 @@ import { initModels } from './models';
 import { pgClientTimeouts } from './db';
 import { configurePassport } from './auth/passport';
 import { CachedSessionStore } from './auth/session-store';
+import { sessionLifetime } from './auth/session-lifetime';
 import { requestId } from './middleware/request-id';
 import { errorHandler, apiNotFound } from './middleware/error-handler';
 import { storableText } from './middleware/storable-text';
@@ -67,9 +68,10 @@ export function createApp(deps: AppDeps, first?: (app: Express) => void): Expres
   app.use(
     session({
       name: 'sw.sid',
-      // No touch on every request: a session lasts one shift from sign-in, and each request
-      // costs one session read instead of a read and a write.
-      // (and a short per-process cache in front of PostgreSQL: see auth/session-store.ts)
+      // No touch on every request: each request costs one session read (from a short
+      // per-process cache in front of PostgreSQL: see auth/session-store.ts) and no write.
+      // sessionLifetime below ends a session idle for SESSION_IDLE_MINUTES or older than
+      // SESSION_MAX_HOURS; the cookie and the row last as long as the longest of them.
       store: new CachedSessionStore(new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 60 * 15, disableTouch: true })),
       secret: deps.config.SESSION_SECRET,
       resave: false,
@@ -79,12 +81,13 @@ export function createApp(deps: AppDeps, first?: (app: Express) => void): Expres
         httpOnly: true,
         sameSite: 'lax',
         secure: deps.config.appUrl.startsWith('https://'),
-        maxAge: 12 * 60 * 60 * 1000,
+        maxAge: deps.config.SESSION_MAX_HOURS * 3_600_000,
       },
     }),
   );
   app.use(passport.initialize());
   app.use(passport.session());
+  app.use(sessionLifetime({ idleMs: deps.config.SESSION_IDLE_MINUTES * 60_000, maxMs: deps.config.SESSION_MAX_HOURS * 3_600_000 }));
 
   const csrf = csrfSync({ size: 32, getTokenFromRequest: (req) => req.headers[CSRF_HEADER] as string | undefined });
   if (deps.reads) app.use('/api', deps.reads.markWrites);

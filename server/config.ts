@@ -30,6 +30,10 @@ const EnvSchema = z.object({
   DATA_DIR: z.string().default('.data'),
   SERVE_CLIENT: bool.default(true),
   LOGIN_RATE_LIMIT: z.coerce.number().int().min(1).default(10),
+  /** a session unused this long is over (checked to the 5 minutes in which use is recorded) */
+  SESSION_IDLE_MINUTES: z.coerce.number().int().min(10).max(24 * 60).default(120),
+  /** a session is over this long after sign-in, however busy: one shift */
+  SESSION_MAX_HOURS: z.coerce.number().min(1).max(24 * 7).default(12),
   ABANDON_AFTER_HOURS: z.coerce.number().positive().default(24),
   /** invented diagnoses seeded into an empty demo shop so that Debrief is never empty; 0 for none */
   DEMO_HISTORY: z.coerce.number().int().min(0).max(100_000).default(300),

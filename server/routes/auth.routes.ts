@@ -5,6 +5,7 @@ import { parseInput } from '../lib/validate';
 import { AppError, notFound } from '../lib/errors';
 import { requireUser, type SessionUser } from '../auth/context';
 import { signInLimits } from '../auth/sign-in-limits';
+import { startSessionClock } from '../auth/session-lifetime';
 import { toSessionUser } from '../auth/passport';
 import {
   LoginInput, SwitchShopInput, ForgotPasswordInput, ResetPasswordInput, AcceptInvitationInput,
@@ -25,8 +26,9 @@ function authenticate(req: Request): Promise<SessionUser | false> {
 }
 
 /** req.login regenerates the session (passport >= 0.6), so the pre-login cookie is dead after this. */
-function logIn(req: Request, user: SessionUser): Promise<void> {
-  return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err instanceof Error ? err : new Error(String(err))) : resolve())));
+async function logIn(req: Request, user: SessionUser): Promise<void> {
+  await new Promise<void>((resolve, reject) => req.login(user, (err) => (err ? reject(err instanceof Error ? err : new Error(String(err))) : resolve())));
+  startSessionClock(req);
 }
 
 export function authRoutes(deps: AppDeps, csrfToken: TokenFn): Router {
@@ -79,7 +81,7 @@ export function authRoutes(deps: AppDeps, csrfToken: TokenFn): Router {
 
   r.post('/shop', requireUser, async (req, res) => {
     const { shopId } = parseInput(SwitchShopInput, req.body);
-    const membership = await Membership.findOne({ where: { shopId, userId: req.user!.id } });
+    const membership = await Membership.findOne({ where: { shopId, userId: req.user!.id, disabledAt: null } });
     if (!membership) throw notFound('That shop');
     req.session.shopId = shopId;
     res.json(await describeMe(req.user!, shopId));
