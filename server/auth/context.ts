@@ -38,7 +38,7 @@ export const requireUser: RequestHandler = (req, _res, next) => {
  * and, through the cache bus, on every other app server (within this time should the bus be down).
  */
 export const MEMBERSHIP_CACHE_MS = 30_000;
-const memberships = new LRUCache<string, Role[]>({ max: 20_000, ttl: MEMBERSHIP_CACHE_MS });
+const memberships = new LRUCache<string, Role[] | 'disabled'>({ max: 20_000, ttl: MEMBERSHIP_CACHE_MS });
 const memberKey = (userId: string, shopId: string) => `${userId}:${shopId}`;
 
 onEviction('membership', (key) => memberships.delete(key), () => memberships.clear());
@@ -47,13 +47,14 @@ export function forgetMembership(userId: string, shopId: string): void {
   announce('membership', memberKey(userId, shopId));
 }
 
-async function rolesIn(userId: string, shopId: string): Promise<Role[] | null> {
+async function rolesIn(userId: string, shopId: string): Promise<Role[] | 'disabled' | null> {
   const hit = memberships.get(memberKey(userId, shopId));
   if (hit) return hit;
-  const membership = await Membership.findOne({ where: { shopId, userId }, attributes: ['roles'] });
+  const membership = await Membership.findOne({ where: { shopId, userId }, attributes: ['roles', 'disabledAt'] });
   if (!membership) return null;
-  memberships.set(memberKey(userId, shopId), membership.roles);
-  return membership.roles;
+  const roles = membership.disabledAt ? 'disabled' : membership.roles;
+  memberships.set(memberKey(userId, shopId), roles);
+  return roles;
 }
 
 /** Resolves the membership of the signed-in user in the session's current shop. */
@@ -61,6 +62,9 @@ export const requireShop: RequestHandler = async (req, _res, next) => {
   if (!req.user) return next(unauthenticated());
   const shopId = req.session.shopId;
   const roles = shopId ? await rolesIn(req.user.id, shopId) : null;
+  if (roles === 'disabled') {
+    return next(new AppError(403, 'member_disabled', 'A shop admin has disabled your membership of this shop. Ask them to enable it again.'));
+  }
   if (!shopId || !roles) {
     return next(new AppError(403, 'no_shop', 'You are not a member of a shop yet. Ask a shop admin for an invitation.'));
   }

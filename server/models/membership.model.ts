@@ -6,6 +6,8 @@ export class Membership extends Model<InferAttributes<Membership>, InferCreation
   declare shopId: string;
   declare userId: string;
   declare roles: Role[];
+  /** set while a shop admin has disabled the member */
+  declare disabledAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -16,6 +18,7 @@ export class Membership extends Model<InferAttributes<Membership>, InferCreation
         shopId: { type: DataTypes.UUID, allowNull: false },
         userId: { type: DataTypes.UUID, allowNull: false },
         roles: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false },
+        disabledAt: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -20,6 +20,12 @@ export function shopRoutes(deps: AppDeps): Router {
     const { roles } = parseInput(UpdateRolesInput, req.body);
     res.json(await shop.updateMemberRoles(deps, ctxOf(req), idParam(req, 'id', 'That member'), roles));
   });
+  r.post('/members/:id/disable', admin, async (req, res) => {
+    res.json(await shop.setMemberDisabled(deps, ctxOf(req), idParam(req, 'id', 'That member'), true));
+  });
+  r.post('/members/:id/enable', admin, async (req, res) => {
+    res.json(await shop.setMemberDisabled(deps, ctxOf(req), idParam(req, 'id', 'That member'), false));
+  });
   r.delete('/members/:id', admin, async (req, res) => {
     await shop.removeMember(deps, ctxOf(req), idParam(req, 'id', 'That member'));
     res.status(204).end();

@@ -14,7 +14,7 @@ export const RESET_LINK_MINUTES = 60;
 
 export async function describeMe(user: { id: string; email: string; name: string }, currentShopId: string | undefined): Promise<Me> {
   const memberships = await Membership.findAll({
-    where: { userId: user.id },
+    where: { userId: user.id, disabledAt: null },
     include: [{ model: Shop, as: 'shop', attributes: ['id', 'name'] }],
     order: [['createdAt', 'ASC']],
   });

@@ -1,5 +1,6 @@
 import type { AppDeps } from '../deps';
 import { forgetMembership, type ShopContext } from '../auth/context';
+import { forgetSessionsOf } from '../auth/session-store';
 import { Invitation, Membership, Shop, User } from '../models';
 import { AppError, notFound } from '../lib/errors';
 import { newLinkToken } from '../lib/tokens';
@@ -18,12 +19,12 @@ export async function listMembers(ctx: ShopContext) {
   });
   return rows.map((m) => {
     const u = (m as Membership & { user: User }).user;
-    return { id: m.id, userId: u.id, email: u.email, name: u.name, roles: m.roles, since: m.createdAt.toISOString() };
+    return { id: m.id, userId: u.id, email: u.email, name: u.name, roles: m.roles, since: m.createdAt.toISOString(), disabled: m.disabledAt !== null };
   });
 }
 
 async function countAdmins(shopId: string, exceptMembershipId: string): Promise<number> {
-  const rows = await Membership.findAll({ where: { shopId }, attributes: ['id', 'roles'] });
+  const rows = await Membership.findAll({ where: { shopId, disabledAt: null }, attributes: ['id', 'roles'] });
   return rows.filter((m) => m.id !== exceptMembershipId && m.roles.includes('admin')).length;
 }
 
@@ -52,6 +53,35 @@ export async function removeMember(deps: AppDeps, ctx: ShopContext, membershipId
     transaction.afterCommit(() => forgetMembership(m.userId, m.shopId));
     await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'member.removed', entity: 'membership', entityId: m.id }, transaction);
   });
+}
+
+/**
+ * Disables a member (they can no longer open the shop, and every session of theirs in it ends at
+ * once, here and on the other app servers) or enables them again. Roles and history stay.
+ */
+export async function setMemberDisabled(deps: AppDeps, ctx: ShopContext, membershipId: string, disabled: boolean) {
+  const m = await Membership.findOne({ where: { id: membershipId, shopId: ctx.shopId } });
+  if (!m) throw notFound('That member');
+  // The caller is an enabled admin who may not disable themselves, so an enabled admin always remains.
+  if (disabled && m.userId === ctx.userId) {
+    throw new AppError(409, 'disable_self', 'You cannot disable yourself. Ask another admin, or sign out.');
+  }
+  await deps.sequelize.transaction(async (transaction) => {
+    await m.update({ disabledAt: disabled ? new Date() : null }, { transaction });
+    if (disabled) {
+      // their sessions in this shop (or in none yet); a session open in another shop of theirs goes on
+      await deps.sequelize.query(
+        `DELETE FROM "session" WHERE sess->'passport'->'user'->>'id' = :userId AND coalesce(sess->>'shopId', :shopId) = :shopId`,
+        { replacements: { userId: m.userId, shopId: ctx.shopId }, transaction },
+      );
+    }
+    transaction.afterCommit(() => {
+      forgetMembership(m.userId, m.shopId);
+      if (disabled) forgetSessionsOf(m.userId);
+    });
+    await audit({ shopId: ctx.shopId, userId: ctx.userId, action: disabled ? 'member.disabled' : 'member.enabled', entity: 'membership', entityId: m.id }, transaction);
+  });
+  return { id: m.id, disabled };
 }
 
 export async function listInvitations(ctx: ShopContext) {

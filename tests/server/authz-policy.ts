@@ -105,6 +105,8 @@ export const POLICY: Readonly<Record<string, Rule>> = {
   'GET /api/shop/members': { may: ADMIN },
   'PATCH /api/shop/members/:id': { may: ADMIN },
   'DELETE /api/shop/members/:id': { may: ADMIN },
+  'POST /api/shop/members/:id/disable': { may: ADMIN },
+  'POST /api/shop/members/:id/enable': { may: ADMIN },
   'GET /api/shop/invitations': { may: ADMIN },
   'POST /api/shop/invitations': { may: ADMIN },
   'DELETE /api/shop/invitations/:id': { may: ADMIN },

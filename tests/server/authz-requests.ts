@@ -121,6 +121,8 @@ export const REQUESTS: Readonly<Record<string, CellRequest>> = {
 
   'GET /api/shop/members': { send: ({ c }) => c.get('/api/shop/members') },
   'PATCH /api/shop/members/:id': { send: ({ c, w }) => c.patch(`/api/shop/members/${w.memberId}`, { roles: ['technician'] }), foreign: true },
+  'POST /api/shop/members/:id/disable': { send: async ({ c, w }) => c.post(`/api/shop/members/${await w.fresh.member()}/disable`), foreign: true },
+  'POST /api/shop/members/:id/enable': { send: ({ c, w }) => c.post(`/api/shop/members/${w.memberId}/enable`), foreign: true },
   'DELETE /api/shop/members/:id': { send: async ({ c, w }) => c.delete(`/api/shop/members/${await w.fresh.member()}`), foreign: true },
   'GET /api/shop/invitations': { send: ({ c }) => c.get('/api/shop/invitations') },
   'POST /api/shop/invitations': { send: ({ c }) => c.post('/api/shop/invitations', { email: `invitee-${tag()}@matrix.test`, roles: ['technician'] }) },

@@ -3,7 +3,7 @@ import type { Role } from '@shared/schema/roles';
 import type { VehicleDto } from '@shared/schema/vehicle';
 import { api, qs } from '../../../lib/api-client';
 
-export interface MemberRow { id: string; userId: string; email: string; name: string; roles: Role[]; since: string }
+export interface MemberRow { id: string; userId: string; email: string; name: string; roles: Role[]; since: string; disabled: boolean }
 export interface InvitationRow { id: string; email: string; name: string; roles: Role[]; createdAt: string; expiresAt: string; state: 'open' | 'accepted' | 'expired' }
 export interface MailRow { id: number; receivedAt: string; to: string[]; subject: string; text: string }
 export interface ShopSettingsDto { name: string; settings: { comebackDays: number; abandonAfterHours: number; serviceDeskEmail: string } }

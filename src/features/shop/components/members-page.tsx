@@ -37,6 +37,23 @@ function RolesCell({ member }: { member: MemberRow }) {
   );
 }
 
+/** Disabling ends the member's sessions in this shop at once; enabling lets them back in with their roles. */
+function AccessCell({ member }: { member: MemberRow }) {
+  const qc = useQueryClient();
+  const toggle = useMutation({
+    mutationFn: () => api.post(`/api/shop/members/${member.id}/${member.disabled ? 'enable' : 'disable'}`),
+    onSuccess: () => void qc.invalidateQueries({ queryKey: shopKeys.members() }),
+  });
+  return (
+    <div className="flex flex-wrap items-center gap-2">
+      <Badge tone={member.disabled ? 'neutral' : 'go'}>{member.disabled ? 'Disabled' : 'Active'}</Badge>
+      <Button variant="ghost" onClick={() => toggle.mutate()} busy={toggle.isPending}
+        aria-label={`${member.disabled ? 'Enable' : 'Disable'} ${member.name}`}>{member.disabled ? 'Enable' : 'Disable'}</Button>
+      {toggle.error && <Alert>{toggle.error instanceof ApiError ? toggle.error.message : 'Not changed.'}</Alert>}
+    </div>
+  );
+}
+
 export function MembersPage() {
   const members = useQuery(shopQueries.members());
   const invitations = useQuery(shopQueries.invitations());
@@ -45,11 +62,12 @@ export function MembersPage() {
     { accessorKey: 'email', header: 'E-mail' },
     { id: 'roles', accessorFn: (m) => m.roles.join(' '), header: 'Roles', cell: (info) => <RolesCell member={info.row.original} /> },
     { accessorKey: 'since', header: 'Member since', cell: (info) => new Date(info.getValue() as string).toLocaleDateString() },
+    { id: 'access', accessorFn: (m) => (m.disabled ? 'disabled' : 'active'), header: 'Access', cell: (info) => <AccessCell member={info.row.original} /> },
   ], []);
   return (
     <div className="grid gap-6 xl:grid-cols-[1fr_380px]">
       <section>
-        <PageHeader title="Members" subtitle="Who works in this shop, and what each may do." />
+        <PageHeader title="Members" subtitle="Who works in this shop, and what each may do. Disabling a member signs them out of this shop at once." />
         {members.isLoading ? <Spinner /> : members.error ? <Alert>{(members.error as Error).message}</Alert> : (
           <DataTable data={members.data ?? []} columns={columns} label="Members" filterPlaceholder="Filter by name, e-mail or role" />
         )}
