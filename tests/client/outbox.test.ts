@@ -15,8 +15,8 @@ interface Sent { method: string; path: string; diagnosisId: string; id: string }
 
 class FakeServer {
   sent: Sent[] = [];
-  /** 'offline' rejects like a phone without signal; 'restarting' answers 503. */
-  mode: 'up' | 'offline' | 'restarting' = 'up';
+  /** 'offline' rejects like a phone without signal; 'restarting' answers 503; 'signed-out' 401 (the session timed out). */
+  mode: 'up' | 'offline' | 'restarting' | 'signed-out' = 'up';
   /** Starts the server refuses, by diagnosis id: the machine was removed meanwhile. */
   refuseStart = new Set<string>();
   started = new Set<string>();
@@ -27,6 +27,7 @@ class FakeServer {
     if (this.mode === 'offline') throw new TypeError('Failed to fetch');
     if (this.mode === 'restarting') return json(503, { error: { code: 'unavailable', message: 'The server is restarting.' } });
     if (url === '/api/auth/csrf') return json(200, { token: 'csrf-token' });
+    if (this.mode === 'signed-out') return json(401, { error: { code: 'session_expired', message: 'You were signed out after 120 minutes without use. Sign in again.', requestId: 'r1' } });
     const body = JSON.parse(String(init.body)) as { id: string };
     const step = /^\/api\/diagnoses\/([^/]+)\/steps$/.exec(url);
     const diagnosisId = step ? step[1]! : body.id;
@@ -138,6 +139,19 @@ describe('the Bench outbox holds a refused diagnosis and goes on with the others
     await outbox.flushOutbox();
     expect(server.sent.map((s) => s.id)).toEqual(['d1', 'a', 'd2']);
     expect(outbox.syncStore.get().waiting).toBe(0);
+  });
+
+  it('when the session has timed out (401), the messages wait for the next sign-in instead of being refused', async () => {
+    await queue('d1', 'W-02', [start('d1'), step('a')]);
+    server.mode = 'signed-out';
+    await outbox.flushOutbox();
+    expect(await queuedIds()).toEqual(['d1', 'a']);
+    expect(outbox.syncStore.get().refused).toEqual([]);
+
+    server.mode = 'up'; // signed in again
+    await outbox.flushOutbox();
+    expect(server.stepsOf('d1')).toEqual(['a']);
+    expect(await queuedIds()).toEqual([]);
   });
 
   it('a step the server calls busy waits and goes again at the next drain, instead of being refused', async () => {

@@ -129,12 +129,13 @@ async function deliver(item: OutboxItem): Promise<void> {
 }
 
 /**
- * A failure that waiting will cure: no network, a timeout, the server busy or restarting. The
- * step route answers 409 "busy" when two answers race; sending again is its own advice.
+ * A failure that waiting will cure: no network, a timeout, the server busy or restarting, or the
+ * session over (401: idle or shift timeout, or signed out; the messages wait for the next
+ * sign-in). The step route answers 409 "busy" when two answers race; sending again is its own advice.
  */
 function transient(e: unknown): boolean {
   if (!(e instanceof ApiError)) return true;
-  return e.isNetwork || e.status === 408 || e.status === 429 || e.status >= 500 || e.code === 'csrf' || e.code === 'busy';
+  return e.isNetwork || e.status === 401 || e.status === 408 || e.status === 429 || e.status >= 500 || e.code === 'csrf' || e.code === 'busy';
 }
 
 /**
