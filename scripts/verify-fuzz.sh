@@ -8,10 +8,11 @@ source scripts/lib.sh
 ensure_node_modules
 export PG_ROOT=$PWD/.tmp/pg-verify
 DATABASE_URL=$(APP_DB=sparkwright_verify bash scripts/pg.sh start --throwaway)
-export DATABASE_URL NODE_ENV=test FUZZ_RUNS=${FUZZ_RUNS:-2000} PROOF_FIGURES=$PWD/.tmp/proof/verify-figures.json
+export DATABASE_URL NODE_ENV=test
 trap 'bash scripts/pg.sh stop' EXIT
-rm -f "$PROOF_FIGURES"
 npx tsx scripts/migrate.ts
+export FUZZ_RUNS=${FUZZ_RUNS:-2000} PROOF_FIGURES=$PWD/.tmp/proof/verify-figures.json
+rm -f "$PROOF_FIGURES"
 status=0
 npx vitest run --project api tests/server/authz-matrix.test.ts tests/server/api-fuzz.test.ts || status=1
 node -e '
