@@ -9,7 +9,9 @@ export type DiagnosisFlag = (typeof DIAGNOSIS_FLAGS)[number];
 export const DIAGNOSIS_SORTS = ['startedAt', 'duration', 'status', 'procedure', 'vehicle', 'technician'] as const;
 
 const uuid = z.string().regex(/^[0-9a-f-]{36}$/i, 'Pick one from the list');
-const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-11-30');
+/** A calendar day: the shape alone would let 2026-02-30 or 9999-99-99 through to the date arithmetic. */
+const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-11-30')
+  .refine((d) => { const t = Date.parse(`${d}T00:00:00Z`); return !Number.isNaN(t) && new Date(t).toISOString().slice(0, 10) === d; }, 'There is no such day: use a date like 2026-11-30');
 
 /** Filters of the diagnoses table (query string). Dates are whole days, `to` inclusive. */
 export const diagnosisFilterSchema = z.object({

@@ -60,3 +60,15 @@ describe('histogram bins against the limits', () => {
     expect(s.hi).toBeGreaterThan(s.lo);
   });
 });
+
+describe('Debrief date filters', () => {
+  it('a day that does not exist (30 February, month 99) is refused as input, not passed on to the date arithmetic', async () => {
+    const { diagnosisListQuerySchema, analyticsQuerySchema } = await import('@shared/stats/debrief-schema');
+    for (const to of ['2026-02-30', '9999-99-99', '2026-13-01', '2026-00-10']) {
+      expect(diagnosisListQuerySchema.safeParse({ to }).success, to).toBe(false);
+      expect(analyticsQuerySchema.safeParse({ procedureId: '00000000-0000-4000-8000-000000000000', from: to }).success, to).toBe(false);
+    }
+    // 2028 is a leap year (Gregorian calendar rule): 29 February exists
+    expect(diagnosisListQuerySchema.safeParse({ from: '2028-02-29', to: '2026-11-30' }).success).toBe(true);
+  });
+});
