@@ -1,4 +1,5 @@
 import type { Role } from '@shared/schema/roles';
+import { PERMISSIONS, may, readsDiagnoses } from '@shared/schema/role-names';
 
 /**
  * Who may call each API route: the policy a reviewer reads, and the authorization matrix checks
@@ -15,22 +16,25 @@ import type { Role } from '@shared/schema/roles';
 export interface Rule { may: 'anyone' | 'signed-in' | readonly Role[]; hidden?: readonly Role[] }
 
 const MEMBERS: readonly Role[] = ['admin', 'author', 'lead', 'technician', 'trainer'];
-const ADMIN: readonly Role[] = ['admin'];
-const AUTHOR: readonly Role[] = ['author'];
-const LEAD: readonly Role[] = ['lead'];
-const DRAFTING: readonly Role[] = ['author', 'lead'];
-const BENCH_WORKERS: readonly Role[] = ['technician', 'lead'];
-const VEHICLE_EDITORS: readonly Role[] = ['admin', 'lead', 'technician'];
-const ANALYSTS: readonly Role[] = ['trainer', 'lead'];
-const DEBRIEF_READERS: readonly Role[] = ['trainer', 'lead', 'technician'];
+// The role sets come from the one permission policy the server checks (shared/schema/role-names.ts);
+// this table says which of them each route follows, so a reviewer reads route → roles here.
+const P = PERMISSIONS;
+const ADMIN = P['shop.manage'];
+const AUTHOR = P['procedure.author'];
+const LEAD = P['procedure.review'];
+const DRAFTING = P['procedure.draft'];
+const BENCH_WORKERS = P['diagnosis.work'];
+const VEHICLE_EDITORS = P['vehicle.edit'];
+const ANALYSTS = P['analytics.read'];
+const COACHES = P['coaching.write'];
+const ADVICE_DRAFTERS = P['advice.draft'];
+/** Anyone who reads diagnoses: their own (Bench workers) or the shop's (leads, trainers). */
+const DIAGNOSIS_READERS: readonly Role[] = MEMBERS.filter((r) => readsDiagnoses([r]));
 /**
- * The Bench's record of a diagnosis: leads, trainers and admins read every one; a technician
- * their own. An author is a member but not a reader: 404.
- * Disagrees with the Debrief replay below, where an admin gets 403 (issue 17 point 3 makes one
- * policy of the two; until it lands the matrix states each route as it answers today).
+ * The matrix's diagnosis is the technician's. An author works at the Bench too but reads and steps
+ * only their own diagnoses, so to the author this one does not exist (404), like a foreign id.
  */
-const RECORD_READERS: readonly Role[] = MEMBERS;
-const NOT_READERS: readonly Role[] = ['author'];
+const NOT_THEIRS: readonly Role[] = MEMBERS.filter((r) => r !== 'technician' && !may([r], 'diagnosis.readAll') && !may([r], 'diagnosis.workAny'));
 
 export const POLICY: Readonly<Record<string, Rule>> = {
   'GET /api/health': { may: 'anyone' },
@@ -51,17 +55,17 @@ export const POLICY: Readonly<Record<string, Rule>> = {
   'POST /api/readings/parse': { may: 'signed-in' },
 
   // Bench
-  'GET /api/diagnoses': { may: MEMBERS },
+  'GET /api/diagnoses': { may: DIAGNOSIS_READERS },
   'POST /api/diagnoses': { may: BENCH_WORKERS },
-  'GET /api/diagnoses/:id': { may: RECORD_READERS, hidden: NOT_READERS },
-  'POST /api/diagnoses/:id/steps': { may: BENCH_WORKERS },
-  'POST /api/diagnoses/:id/report': { may: RECORD_READERS, hidden: NOT_READERS },
+  'GET /api/diagnoses/:id': { may: DIAGNOSIS_READERS, hidden: NOT_THEIRS },
+  'POST /api/diagnoses/:id/steps': { may: BENCH_WORKERS, hidden: NOT_THEIRS },
+  'POST /api/diagnoses/:id/report': { may: DIAGNOSIS_READERS, hidden: NOT_THEIRS },
   'GET /api/bench/procedures': { may: MEMBERS },
   'GET /api/bench/procedures/:slug': { may: MEMBERS },
   'GET /api/bench/versions/:id': { may: MEMBERS },
-  'POST /api/attachments': { may: BENCH_WORKERS },
-  'GET /api/attachments/:id': { may: RECORD_READERS, hidden: NOT_READERS },
-  'GET /api/attachments/:id/thumb': { may: RECORD_READERS, hidden: NOT_READERS },
+  'POST /api/attachments': { may: BENCH_WORKERS, hidden: NOT_THEIRS },
+  'GET /api/attachments/:id': { may: DIAGNOSIS_READERS, hidden: NOT_THEIRS },
+  'GET /api/attachments/:id/thumb': { may: DIAGNOSIS_READERS, hidden: NOT_THEIRS },
   'GET /api/vehicles': { may: MEMBERS },
   'GET /api/vehicles/:id': { may: MEMBERS },
   'POST /api/vehicles': { may: VEHICLE_EDITORS },
@@ -86,20 +90,19 @@ export const POLICY: Readonly<Record<string, Rule>> = {
   'GET /api/procedures/:id/versions/:versionId/comments': { may: DRAFTING },
   'POST /api/procedures/:id/versions/:versionId/comments': { may: DRAFTING },
 
-  // Debrief. Today an admin may read a diagnosis's record on the Bench (above) but not its replay
-  // here (403): the disagreement issue 17 point 3 settles.
+  // Debrief: the replay and the list follow the same diagnosis readers as the Bench's record
   'GET /api/debrief/procedures': { may: ANALYSTS },
   'GET /api/debrief/technicians': { may: ANALYSTS },
-  'GET /api/debrief/diagnoses': { may: DEBRIEF_READERS },
-  'GET /api/debrief/diagnoses.csv': { may: DEBRIEF_READERS },
-  'GET /api/debrief/diagnoses/:id': { may: DEBRIEF_READERS },
-  'POST /api/debrief/diagnoses/:id/coaching-notes': { may: ANALYSTS },
+  'GET /api/debrief/diagnoses': { may: DIAGNOSIS_READERS },
+  'GET /api/debrief/diagnoses.csv': { may: DIAGNOSIS_READERS },
+  'GET /api/debrief/diagnoses/:id': { may: DIAGNOSIS_READERS, hidden: NOT_THEIRS },
+  'POST /api/debrief/diagnoses/:id/coaching-notes': { may: COACHES },
   'GET /api/debrief/analytics/steps': { may: ANALYSTS },
   'GET /api/debrief/analytics/findings': { may: ANALYSTS },
   'GET /api/debrief/analytics/readings': { may: ANALYSTS },
   'GET /api/debrief/analytics/times': { may: ANALYSTS },
   'GET /api/debrief/analytics/advisor': { may: ANALYSTS },
-  'POST /api/debrief/advisor/drafts': { may: LEAD },
+  'POST /api/debrief/advisor/drafts': { may: ADVICE_DRAFTERS },
 
   // Shop
   'GET /api/shop/members': { may: ADMIN },
