@@ -44,6 +44,8 @@ export const POLICY: Readonly<Record<string, Rule>> = {
   'POST /api/auth/login': { may: 'anyone' },
   'POST /api/auth/logout': { may: 'anyone' },
   'GET /api/auth/me': { may: 'signed-in' },
+  // who is signed in, or { user: null }: the app's first question, answered to anyone
+  'GET /api/auth/session': { may: 'anyone' },
   'POST /api/auth/shop': { may: 'signed-in' },
   'POST /api/auth/password/forgot': { may: 'anyone' },
   'POST /api/auth/password/reset': { may: 'anyone' },

@@ -43,6 +43,7 @@ export const REQUESTS: Readonly<Record<string, CellRequest>> = {
   },
   'POST /api/auth/logout': { send: async ({ spare }) => (await spare()).post('/api/auth/logout') },
   'GET /api/auth/me': { send: ({ c }) => c.get('/api/auth/me') },
+  'GET /api/auth/session': { send: ({ c }) => c.get('/api/auth/session') },
   'POST /api/auth/shop': { send: ({ c, w }) => c.post('/api/auth/shop', { shopId: w.shopId }), foreign: true },
   'POST /api/auth/password/forgot': { send: ({ c }) => c.post('/api/auth/password/forgot', { email: 'nobody@matrix.test' }) },
   'POST /api/auth/password/reset': { send: async ({ c, resetToken }) => c.post('/api/auth/password/reset', { token: await resetToken(), password: 'a-new-long-password' }) },
