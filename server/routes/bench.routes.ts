@@ -4,7 +4,7 @@ import { ctxOf } from '../auth/context';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
 import { notFound } from '../lib/errors';
-import { ProcedureListQuery } from '../services/diagnosis.schema';
+import { ProcedureListQuery } from '@shared/schema/bench';
 import * as bench from '../services/bench.service';
 
 /** What a phone needs to walk a procedure offline: the published list and the pinned documents. */

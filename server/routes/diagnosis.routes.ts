@@ -4,7 +4,7 @@ import { ctxOf } from '../auth/context';
 import { allow, allowDiagnosisReading } from '../auth/policy';
 import { parseInput } from '../lib/validate';
 import { idParam } from '../lib/params';
-import { DiagnosisListQuery, ReportInput, StartDiagnosisInput, StepInput } from '../services/diagnosis.schema';
+import { DiagnosisListQuery, DiagnosisStepInput, ReportInput, StartDiagnosisInput } from '@shared/schema/bench';
 import * as diagnoses from '../services/diagnosis.service';
 import { recordStep } from '../services/diagnosis-step.service';
 import { emailReport } from '../services/report.service';
@@ -22,7 +22,7 @@ export function diagnosisRoutes(deps: AppDeps): Router {
   r.get('/:id', readers, async (req, res) => res.json(await diagnoses.getRecord(deps, ctxOf(req), idParam(req, 'id', 'That diagnosis'))));
   r.post('/:id/steps', workers, async (req, res) => {
     const id = idParam(req, 'id', 'That diagnosis');
-    const out = await recordStep(deps, ctxOf(req), id, parseInput(StepInput, req.body, 'The step'));
+    const out = await recordStep(deps, ctxOf(req), id, parseInput(DiagnosisStepInput, req.body, 'The step'));
     res.status(out.duplicate ? 200 : 201).json(out);
   });
   r.post('/:id/report', readers, async (req, res) => {

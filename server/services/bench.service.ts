@@ -1,9 +1,10 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { upgradeProcedure } from '@shared/schema/upgrade';
 import type { ProcedureDocument, Step } from '@shared/schema/procedure';
+import type { BenchProcedure, BenchVersion } from '@shared/schema/bench';
 import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
-import { handleOf } from './debrief-analytics.service';
+import { recordedHandle } from '@shared/schema/branches';
 
 export interface PinnedVersion {
   id: string;
@@ -14,11 +15,6 @@ export interface PinnedVersion {
   number: number;
   document: ProcedureDocument;
   steps: ReadonlyMap<string, Step>;
-}
-
-export interface PublishedProcedure {
-  procedureId: string; slug: string; title: string; symptom: string; ignitionSystem: string;
-  versionId: string; number: number; publishedAt: string | null;
 }
 
 // Published and retired versions never change, so a parsed document can be kept for the life of
@@ -53,7 +49,7 @@ export async function loadPinnedVersion(sequelize: Sequelize, shopId: string, ve
 }
 
 /** The latest published version of each procedure, filtered by symptom and ignition system. */
-export async function listPublished(sequelize: Sequelize, ctx: ShopContext, q: { symptom?: string | undefined; ignitionSystem?: string | undefined }): Promise<PublishedProcedure[]> {
+export async function listPublished(sequelize: Sequelize, ctx: ShopContext, q: { symptom?: string | undefined; ignitionSystem?: string | undefined }): Promise<BenchProcedure[]> {
   const rows = await sequelize.query<{ procedure_id: string; slug: string; title: string; symptom: string; ignition_system: string; version_id: string; number: number; published_at: Date | null }>(
     `SELECT DISTINCT ON (p.id) p.id AS procedure_id, p.slug, p.title, p.symptom, p.ignition_system,
             v.id AS version_id, v.number, v.published_at
@@ -73,7 +69,7 @@ export async function listPublished(sequelize: Sequelize, ctx: ShopContext, q: {
 }
 
 /** The version a phone caches to walk offline: the latest published one for a slug, or a pinned id. */
-export async function getVersionForBench(sequelize: Sequelize, ctx: ShopContext, ref: { slug?: string; versionId?: string }) {
+export async function getVersionForBench(sequelize: Sequelize, ctx: ShopContext, ref: { slug?: string; versionId?: string }): Promise<BenchVersion> {
   let versionId = ref.versionId;
   if (!versionId) {
     const all = await listPublished(sequelize, ctx, {});
@@ -99,6 +95,6 @@ async function branchCountsOf(sequelize: Sequelize, shopId: string, versionId: s
     { replacements: { shopId, versionId }, type: QueryTypes.SELECT },
   );
   const counts: Record<string, Record<string, number>> = {};
-  for (const r of rows) (counts[r.step_id] ??= {})[handleOf(r.band_id, r.answer_id)] = Number(r.n);
+  for (const r of rows) (counts[r.step_id] ??= {})[recordedHandle(r.band_id, r.answer_id)] = Number(r.n);
   return counts;
 }

@@ -10,7 +10,7 @@ import { branchesOf } from '@shared/schema/branches';
 import type { ProcedureDocument } from '@shared/schema';
 import type { AdvisorAnswer, AdvisorChain, AdvisorCheck, AdvisorDraftBody } from '@shared/stats/debrief-schema';
 import { audit } from './audit';
-import { handleOf } from './debrief-analytics.service';
+import { recordedHandle } from '@shared/schema/branches';
 import { SCOPED, STEP_SCOPE, num, numOrNull, parseDocument, scopeBinds, type Scope, type Sql } from './debrief-scope';
 
 // The check-order advisor over recorded diagnoses: each check's share of revealed faults and its
@@ -42,7 +42,7 @@ function estimate(doc: ProcedureDocument, chain: CheckChain, figures: Awaited<Re
     const step = byId.get(id)!;
     const target = new Map(branchesOf(step).map((b) => [b.handle, b.to]));
     const revealed = figures.rows
-      .filter((r) => r.step_id === id && byId.get(target.get(handleOf(r.band_id, r.answer_id)) ?? '')?.kind === 'finding')
+      .filter((r) => r.step_id === id && byId.get(target.get(recordedHandle(r.band_id, r.answer_id)) ?? '')?.kind === 'finding')
       .reduce((a, r) => a + num(r.n), 0);
     const recorded = figures.medians.get(id) ?? null;
     const estimateSeconds = (step.minutes ?? doc.meta.minutesPerStep) * 60;

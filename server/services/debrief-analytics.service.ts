@@ -1,5 +1,6 @@
 import { QUANTILE_DEFINITION } from '@shared/stats/quantile';
 import { resolveLimits } from '@shared/measure/verdict';
+import { recordedHandle } from '@shared/schema/branches';
 import type {
   BranchFigure, DiagnosisStatus, FindingsAnalytics, Quart, ReadingFigure, ReadingsAnalytics, StepFigure, StepsAnalytics, TimesAnalytics,
 } from '@shared/stats/debrief-schema';
@@ -18,14 +19,6 @@ const quart = (r: Record<string, unknown>): Quart => {
   const q = (r.q as (number | string | null)[] | null) ?? [null, null, null];
   return { n: num(r.n), q1: numOrNull(q[0]), median: numOrNull(q[1]), q3: numOrNull(q[2]) };
 };
-
-/** The branch handle a recorded answer took (`band:<id>`, `answer:<id>`, `borderline` or `next`). */
-export function handleOf(bandId: unknown, answerId: unknown): string {
-  if (typeof answerId === 'string') return `answer:${answerId}`;
-  if (bandId === 'borderline') return 'borderline';
-  if (typeof bandId === 'string') return `band:${bandId}`;
-  return 'next';
-}
 
 /** Per step: how many diagnoses reached it and how many ended there; per branch: the share taken. */
 export async function stepsAnalytics(sql: Sql, scope: Scope): Promise<StepsAnalytics> {
@@ -52,7 +45,7 @@ export async function stepsAnalytics(sql: Sql, scope: Scope): Promise<StepsAnaly
   const perStep = new Map<string, number>();
   for (const r of branches) perStep.set(String(r.step_id), (perStep.get(String(r.step_id)) ?? 0) + num(r.n));
   const branchFigures: BranchFigure[] = branches.map((r) => ({
-    from: String(r.step_id), handle: handleOf(r.band_id, r.answer_id), count: num(r.n), share: num(r.n) / perStep.get(String(r.step_id))!,
+    from: String(r.step_id), handle: recordedHandle(r.band_id, r.answer_id), count: num(r.n), share: num(r.n) / perStep.get(String(r.step_id))!,
   }));
   return { diagnoses: total, steps: [...figures.values()], branches: branchFigures };
 }

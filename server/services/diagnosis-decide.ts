@@ -1,8 +1,10 @@
 import type { ProcedureDocument, Step } from '@shared/schema/procedure';
-import { ProcedureWalk, type PathStep, type WalkEntry, type WalkProblem } from '@shared/engine/walk';
+import { ProcedureWalk, type PathStep, type WalkProblem } from '@shared/engine/walk';
+import { walkEntryOf } from '@shared/engine/step-entry';
+import { limitsView } from '@shared/engine/step-view';
+import type { StepShown } from '@shared/schema/bench';
 import { recordedBranch, resolveLimits, type Verdict } from '@shared/measure/verdict';
 import { QUANTITY_INFO } from '@shared/measure/quantities';
-import { formatLimit } from '@shared/measure/format';
 import { AppError, badRequest } from '../lib/errors';
 
 /** An answered step on the current path (not superseded), oldest first, as stored. */
@@ -16,21 +18,18 @@ export interface StepAnswer { stepId: string; entered?: string | undefined; lead
 export interface DecidedStep {
   entered: string | null; value: number | null; unit: string | null; verdict: Verdict | null;
   bandId: string | null; answerId: string | null; next: string | null;
-  shown: Record<string, unknown>;
+  shown: StepShown;
 }
 
 export { withMeter, type MeterEntry } from '@shared/engine/meter';
 
+// The record keeps the limits in the words the step screen showed them (the shared limitsView).
 function limitsText(step: Extract<Step, { kind: 'reading' | 'formula' }>): string {
-  if (!step.limits) return '';
-  const { min, max } = resolveLimits(step.limits);
-  const f = (v: number) => formatLimit(v, step.quantity, step.unit);
-  if (min !== undefined && max !== undefined) return `${f(min)} to ${f(max)}`;
-  return min !== undefined ? `at least ${f(min)}` : `at most ${f(max!)}`;
+  return step.limits ? limitsView(step.limits, step.quantity, step.unit).text : '';
 }
 
 /** What the screen showed for a step, rebuilt from the pinned version so the record can be trusted. */
-export function shownOf(step: Step): Record<string, unknown> {
+export function shownOf(step: Step): StepShown {
   const base = { title: step.title, instructions: step.instructions, safety: step.safety };
   switch (step.kind) {
     case 'reading':
@@ -41,15 +40,6 @@ export function shownOf(step: Step): Record<string, unknown> {
     case 'finding': return { ...base, cause: step.cause, repair: step.repair, parts: step.parts };
     case 'handoff': return { ...base, reason: step.reason };
   }
-}
-
-/** The walker's entry for a stored or arriving answer; Formulas and endings need none. */
-function entryOf(step: Step | undefined, a: { stepId: string; entered?: string | null | undefined; lead?: string | null | undefined; answerId?: string | null | undefined; acknowledged?: boolean | undefined }): WalkEntry | null {
-  const acknowledged = a.acknowledged ?? false;
-  if (step?.kind === 'reading') return { stepId: a.stepId, acknowledged, answer: { kind: 'reading', text: a.entered ?? '', ...(a.lead ? { leadText: a.lead } : {}) } };
-  if (step?.kind === 'observation') return { stepId: a.stepId, acknowledged, answer: { kind: 'observation', answerId: a.answerId ?? '' } };
-  if (step?.kind === 'task') return { stepId: a.stepId, acknowledged, answer: { kind: 'task' } };
-  return null;
 }
 
 function refusal(p: WalkProblem): AppError {
@@ -87,7 +77,7 @@ function decided(step: Step, p: PathStep, answer: StepAnswer): DecidedStep {
 function replay(doc: ProcedureDocument, steps: ReadonlyMap<string, Step>, keep: readonly PathRow[]): ProcedureWalk {
   const walk = ProcedureWalk.start(doc);
   for (const r of keep) {
-    const entry = entryOf(steps.get(r.stepId), r);
+    const entry = walkEntryOf(steps.get(r.stepId), { ...r, leadEntered: r.lead });
     if (entry && walk.take(entry).status !== 'applied') break;
   }
   const replayed = walk.record.every((r) => r.status === 'applied') && keep.every((r, i) => walk.path[i]?.stepId === r.stepId);
@@ -110,7 +100,7 @@ export function decideStep(
   const step = steps.get(answer.stepId)!;
   const walk = prior ? prior.fork() : replay(doc, steps, keep);
   const at = keep.length;
-  const entry = entryOf(step, { ...answer, lead: answer.leadEntered });
+  const entry = walkEntryOf(step, answer);
   // An answer is for the step the walk stands at; going back is said with `after`, not here. An
   // answer for another step is not taken: the path check below names the step that comes next.
   const forAnotherStep = walk.status === 'in-progress' && walk.current?.id !== answer.stepId;

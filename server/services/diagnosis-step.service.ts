@@ -8,21 +8,16 @@ import { parseInput } from '../lib/validate';
 import { loadPinnedVersion } from './bench.service';
 import { decideStep, withMeter, type PathRow } from './diagnosis-decide';
 import type { ProcedureWalk } from '@shared/engine/walk';
-import { FindingOutcomeInput, HandoffOutcomeInput, type StepInput } from './diagnosis.schema';
+import { FindingOutcomeInput, HandoffOutcomeInput, type DiagnosisStatus, type DiagnosisStepInput, type StepResult } from '@shared/schema/bench';
 import { notifyHandoff } from './report.service';
 
-export interface StepResult {
-  id: string; seq: number; stepId: string; value: number | null; verdict: string | null;
-  bandId: string | null; answerId: string | null; next: string | null; status: string; duplicate: boolean;
-}
-
 interface Head {
-  status: string; technician_id: string; procedure_version_id: string; max_seq: number;
+  status: DiagnosisStatus; technician_id: string; procedure_version_id: string; max_seq: number;
   meter: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] | null;
   path: PathRow[];
   /** Kept in memory only: the walk over exactly `path`, so the next answer is not a replay. */
   walk?: ProcedureWalk | undefined;
-  existing: { diagnosis_id: string; payload_hash: string; seq: number; step_id: string; value: number | null; verdict: string | null; band_id: string | null; answer_id: string | null; next_step_id: string | null } | null;
+  existing: { diagnosis_id: string; payload_hash: string; seq: number; step_id: string; value: number | null; verdict: StepResult['verdict']; band_id: string | null; answer_id: string | null; next_step_id: string | null } | null;
 }
 
 /** sha256 over the input with sorted keys, so a retried message hashes the same. */
@@ -102,7 +97,7 @@ async function onPooledClient<T>(deps: AppDeps, fn: (client: PgClient) => Promis
   }
 }
 
-function fromExisting(e: NonNullable<Head['existing']>, id: string, status: string): StepResult {
+function fromExisting(e: NonNullable<Head['existing']>, id: string, status: DiagnosisStatus): StepResult {
   return { id, seq: e.seq, stepId: e.step_id, value: e.value, verdict: e.verdict, bandId: e.band_id, answerId: e.answer_id, next: e.next_step_id, status, duplicate: true };
 }
 
@@ -122,13 +117,13 @@ function keptPath(path: readonly PathRow[], after: string | null): PathRow[] {
   return path.slice(0, i + 1);
 }
 
-function outcomeFor(kind: string, input: StepInput): { endStatus: string | null; outcome: string | null } {
+function outcomeFor(kind: string, input: DiagnosisStepInput): { endStatus: DiagnosisStatus | null; outcome: string | null } {
   if (kind === 'finding') return { endStatus: 'finished', outcome: JSON.stringify(parseInput(FindingOutcomeInput, input.outcome ?? {}, 'The finding')) };
   if (kind === 'handoff') return { endStatus: 'handed_off', outcome: JSON.stringify(parseInput(HandoffOutcomeInput, input.outcome ?? {}, 'The hand-off')) };
   return { endStatus: null, outcome: null };
 }
 
-async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput, head: Head, hash: string) {
+async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: DiagnosisStepInput, head: Head, hash: string) {
   const version = await loadPinnedVersion(deps.sequelize, ctx.shopId, head.procedure_version_id);
   const step = version.steps.get(input.stepId);
   if (!step) {
@@ -194,7 +189,7 @@ const isSeqConflict = (e: unknown) => (e as { code?: string; constraint?: string
  * phone's id is the primary key), earlier answers after `after` marked superseded. One read and
  * one atomic write; a query-count test and the benchmark hold it to that.
  */
-export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: StepInput): Promise<StepResult> {
+export async function recordStep(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: DiagnosisStepInput): Promise<StepResult> {
   const hash = payloadHash(input);
   for (let attempt = 0; attempt < 4; attempt++) {
     const { head, cached } = await readHead(deps, ctx, diagnosisId, input.id, attempt);

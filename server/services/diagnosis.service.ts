@@ -6,19 +6,10 @@ import { AppError, notFound } from '../lib/errors';
 import { Diagnosis, Meter, Vehicle } from '../models';
 import { loadPinnedVersion } from './bench.service';
 import { audit } from './audit';
-import type { StartDiagnosisInput } from './diagnosis.schema';
-
-export interface DiagnosisSummary {
-  id: string; status: string; procedureTitle: string; procedureSlug: string; versionId: string; versionNumber: number;
-  vehicleLabel: string; vehicleModel: string; technicianName: string; complaint: string;
-  startedAt: string; endedAt: string | null; lastActivityAt: string; stepsAnswered: number; endingStepId: string | null;
-  /** The title of the step waiting for an answer, while the diagnosis is active (else null). */
-  currentStepTitle: string | null;
-}
-
+import type { DiagnosisRecord, DiagnosisStatus, DiagnosisSummary, RecordStep, StartDiagnosisInput, StartDiagnosisResult } from '@shared/schema/bench';
 
 /** Starts a diagnosis with the phone's id; sending the same start again answers the stored one. */
-export async function startDiagnosis(deps: AppDeps, ctx: ShopContext, input: StartDiagnosisInput): Promise<{ created: boolean; id: string }> {
+export async function startDiagnosis(deps: AppDeps, ctx: ShopContext, input: StartDiagnosisInput): Promise<StartDiagnosisResult> {
   const existing = await Diagnosis.findOne({ where: { id: input.id } });
   if (existing) {
     if (existing.shopId !== ctx.shopId || existing.technicianId !== ctx.userId || existing.procedureVersionId !== input.procedureVersionId) {
@@ -61,7 +52,7 @@ const SUMMARY_SQL = `
    WHERE d.shop_id = :shopId`;
 
 interface SummaryRow {
-  id: string; status: string; procedure_title: string; procedure_slug: string; version_id: string; version_number: number;
+  id: string; status: DiagnosisStatus; procedure_title: string; procedure_slug: string; version_id: string; version_number: number;
   vehicle_label: string; vehicle_model: string; technician_name: string; complaint: string; started_at: Date; ended_at: Date | null;
   last_activity_at: Date; ending_step_id: string | null; technician_id: string; steps_answered: number;
   current_step_title: string | null;
@@ -91,7 +82,7 @@ export async function listDiagnoses(deps: AppDeps, ctx: ShopContext, q: { status
 
 /** One diagnosis the caller may read (own, or any for leads and trainers); otherwise a 404. */
 type RecordRow = SummaryRow & {
-  conditions: Record<string, unknown>; outcome: Record<string, unknown> | null; meter_name: string | null; meter_entries: unknown[] | null;
+  conditions: DiagnosisRecord['conditions']; outcome: DiagnosisRecord['outcome']; meter_name: string | null; meter_entries: DiagnosisRecord['meterEntries'] | null;
   vehicle_frame: string; vehicle_hours: string | null;
 };
 
@@ -108,21 +99,25 @@ export async function findReadable(deps: AppDeps, ctx: ShopContext, id: string):
   return row;
 }
 
-/** The complete record: every answer (superseded ones too), photos and coaching notes. */
-export async function getRecord(deps: AppDeps, ctx: ShopContext, id: string) {
+/**
+ * The complete record: every answer (superseded ones too), photos and coaching notes. The rows'
+ * timestamps come out of node-postgres as Dates; JSON sends them as the ISO strings the shared
+ * shape names (tests/server/bench-contract.test.ts parses the answer).
+ */
+export async function getRecord(deps: AppDeps, ctx: ShopContext, id: string): Promise<DiagnosisRecord> {
   const d = await findReadable(deps, ctx, id);
   const [steps, attachments, coaching] = await Promise.all([
-    deps.sequelize.query<Record<string, unknown>>(
+    deps.sequelize.query<RecordStep>(
       `SELECT id, seq, step_id AS "stepId", kind, shown, entered, value, unit, verdict, band_id AS "bandId", answer_id AS "answerId",
               superseded, note, started_at AS "startedAt", answered_at AS "answeredAt", next_step_id AS "next"
          FROM diagnosis_steps WHERE diagnosis_id = :id AND shop_id = :shopId ORDER BY seq`,
       { replacements: { id, shopId: ctx.shopId }, type: QueryTypes.SELECT }),
-    deps.sequelize.query<Record<string, unknown>>(
+    deps.sequelize.query<DiagnosisRecord['attachments'][number]>(
       `SELECT id, step_id AS "stepId", content_type AS "contentType", byte_size AS "byteSize", original_name AS "originalName",
               thumb_key IS NOT NULL AS "hasThumb", created_at AS "createdAt"
          FROM attachments WHERE diagnosis_id = :id AND shop_id = :shopId ORDER BY created_at`,
       { replacements: { id, shopId: ctx.shopId }, type: QueryTypes.SELECT }),
-    deps.sequelize.query<Record<string, unknown>>(
+    deps.sequelize.query<DiagnosisRecord['coachingNotes'][number]>(
       `SELECT c.id, c.step_id AS "stepId", c.body, u.name AS "authorName", c.created_at AS "createdAt"
          FROM coaching_notes c LEFT JOIN users u ON u.id = c.author_id
         WHERE c.diagnosis_id = :id AND c.shop_id = :shopId ORDER BY c.created_at`,
@@ -134,4 +129,3 @@ export async function getRecord(deps: AppDeps, ctx: ShopContext, id: string) {
     steps, attachments, coachingNotes: coaching,
   };
 }
-export type DiagnosisRecord = Awaited<ReturnType<typeof getRecord>>;

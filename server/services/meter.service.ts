@@ -2,11 +2,12 @@ import { UniqueConstraintError } from 'sequelize';
 import type { ShopContext } from '../auth/context';
 import { Meter } from '../models';
 import { AppError } from '../lib/errors';
-import type { MeterInput } from '@shared/schema/shop';
+import type { MeterDto, MeterInput } from '@shared/schema/shop';
 
-export async function listMeters(ctx: ShopContext) {
+export async function listMeters(ctx: ShopContext): Promise<MeterDto[]> {
   const rows = await Meter.findAll({ where: { shopId: ctx.shopId }, order: [['name', 'ASC']] });
-  return rows.map((m) => ({ id: m.id, name: m.name, spec: m.spec }));
+  // Stored only through MeterInput, so each entry names a reading quantity.
+  return rows.map((m) => ({ id: m.id, name: m.name, spec: m.spec as MeterDto['spec'] }));
 }
 
 export async function createMeter(ctx: ShopContext, input: MeterInput) {

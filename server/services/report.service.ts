@@ -3,7 +3,8 @@ import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
 import { AppError } from '../lib/errors';
 import { Shop } from '../models';
-import { getRecord, type DiagnosisRecord } from './diagnosis.service';
+import type { DiagnosisRecord } from '@shared/schema/bench';
+import { getRecord } from './diagnosis.service';
 import { audit } from './audit';
 
 const esc = (s: unknown) => String(s ?? '').replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);

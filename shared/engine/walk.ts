@@ -1,8 +1,9 @@
 import type { FormulaStep, ProcedureDocument, ReadingStep, Step } from '../schema/procedure';
 import { bandFor } from '../measure/bands';
 import { evaluateFormula, type FormulaValue } from '../measure/formula';
-import { parseReading, type Reading, type ReadingError } from '../measure/parse';
+import type { Reading, ReadingError } from '../measure/parse';
 import { decideReading, type ReadingDecision } from '../measure/verdict';
+import { decideEntered } from './reading-entry';
 import { stepView, type StepView } from './step-view';
 
 /** What the technician did at a step. */
@@ -70,6 +71,17 @@ export interface WalkState {
 }
 
 type Outcome = { path: PathStep; value?: FormulaValue } | WalkProblem;
+
+/**
+ * How many borderline readings in a row were re-measured at `stepId` at the end of the path: the
+ * borderline rule's count, on the phone's live verdict and in the walker alike.
+ * Example: after two re-measured readings at 'capOhms', remeasuredAt(path, 'capOhms') === 2.
+ */
+export function remeasuredAt(path: readonly Pick<PathStep, 'stepId' | 'outcome'>[], stepId: string): number {
+  let n = 0;
+  for (let i = path.length - 1; i >= 0 && path[i]!.stepId === stepId && path[i]!.outcome === 're-measure'; i--) n++;
+  return n;
+}
 
 const problem = (code: WalkProblemCode, message: string, extra: Partial<WalkProblem> = {}): WalkProblem => ({ code, message, ...extra });
 
@@ -158,30 +170,12 @@ export class ProcedureWalk {
     return { path: { stepId: step.id, kind: 'formula', entryIndex: null, decision, value: r.value, next, outcome: 'computed' }, value };
   }
 
-  private remeasured(stepId: string): number {
-    let n = 0;
-    for (let i = this.path.length - 1; i >= 0 && this.path[i]!.stepId === stepId && this.path[i]!.outcome === 're-measure'; i--) n++;
-    return n;
-  }
-
   private measure(step: ReadingStep, answer: Extract<WalkAnswer, { kind: 'reading' }>, index: number): Outcome {
-    const parsed = parseReading(answer.text, step.quantity, step.unit);
-    if (!parsed.ok) return problem('bad-reading', parsed.error.message, { readingError: parsed.error });
-    let lead: number | undefined;
-    if (step.leadNull && answer.leadText !== undefined && answer.leadText.trim() !== '') {
-      const l = parseReading(answer.leadText, 'resistance', 'Ω');
-      if (!l.ok) return problem('bad-reading', `Test leads: ${l.error.message}`, { readingError: l.error });
-      lead = l.reading.value;
-    }
-    const temp = step.winding ? this.values[step.winding.temperatureStep] : undefined;
-    if (step.winding && !temp) return problem('missing-value', `${step.title} needs the engine temperature, which was not measured on this path.`);
-    const decision = decideReading({
-      value: parsed.reading.value, limits: step.limits, meter: step.meter, rule: step.decision, leadResistance: lead,
-      winding: step.winding && temp ? { temperature: temp.value, referenceTemperature: step.winding.referenceTemperature } : undefined,
-      bands: step.bands, borderline: step.borderline, remeasured: this.remeasured(step.id),
-    });
+    const r = decideEntered(step, answer, this.values, remeasuredAt(this.path, step.id));
+    if (!r.ok) return problem(r.code, r.message, r.readingError ? { readingError: r.readingError } : {});
+    const { decision } = r;
     const route = decision.route;
-    const base = { stepId: step.id, kind: 'reading' as const, entryIndex: index, answer, reading: parsed.reading, decision, value: decision.value };
+    const base = { stepId: step.id, kind: 'reading' as const, entryIndex: index, answer, reading: r.reading, decision, value: decision.value };
     const value = { value: decision.value, quantity: step.quantity };
     if (route.kind === 're-measure') return { path: { ...base, next: step.id, outcome: 're-measure' }, value };
     if (route.kind === 'no-band') return { path: { ...base, next: null, outcome: 'stuck' }, value };

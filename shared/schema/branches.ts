@@ -10,6 +10,18 @@ export interface Branch {
   readonly kind: 'band' | 'answer' | 'next' | 'borderline';
 }
 
+/**
+ * The handle of the branch a recorded step took, from the record's `band_id` and `answer_id`:
+ * what Debrief counts per branch and the phone's path figures weigh branches by.
+ * Example: recordedHandle('borderline', null) === 'borderline'; recordedHandle(null, 'none') === 'answer:none'.
+ */
+export function recordedHandle(bandId: unknown, answerId: unknown): string {
+  if (typeof answerId === 'string') return `answer:${answerId}`;
+  if (bandId === 'borderline') return 'borderline';
+  if (typeof bandId === 'string') return `band:${bandId}`;
+  return 'next';
+}
+
 /** Finding and Hand-off end a diagnosis. */
 export function isEnding(step: Step): boolean {
   return step.kind === 'finding' || step.kind === 'handoff';

@@ -22,3 +22,6 @@ export const MeterInput = z.object({
   spec: z.object({ entries: z.array(MeterSpecEntrySchema).max(20) }),
 });
 export type MeterInput = z.infer<typeof MeterInput>;
+
+/** A shop meter as `GET /api/shop/meters` lists it. */
+export interface MeterDto { id: string; name: string; spec: MeterInput['spec'] }

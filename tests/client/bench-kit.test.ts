@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { filterProcedures } from '../../src/features/bench/lib/kit';
-import type { BenchProcedure } from '../../src/features/bench/api/types';
+import type { BenchProcedure } from '@shared/schema/bench';
 
 const p = (slug: string, title: string, symptom: string, ignitionSystem: string): BenchProcedure =>
-  ({ procedureId: slug, slug, title, symptom, ignitionSystem, versionId: `${slug}-v1`, number: 1 });
+  ({ procedureId: slug, slug, title, symptom, ignitionSystem, versionId: `${slug}-v1`, number: 1, publishedAt: null });
 const list = [
   p('no-spark', 'No spark', 'No spark', 'magneto-cdi'),
   p('weak-spark', 'Weak spark', 'Weak or orange spark', 'magneto-cdi'),

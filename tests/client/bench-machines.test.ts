@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { matchMachines } from '../../src/features/bench/lib/machines';
-import type { Vehicle } from '../../src/features/bench/api/types';
+import type { VehicleDto as Vehicle } from '@shared/schema/vehicle';
 
 // An invented fleet; the VIN is the 49 CFR 565.15 worked example (check digit X).
+const vehicle = (v: Omit<Vehicle, 'notes' | 'updatedAt'>): Vehicle => ({ ...v, notes: '', updatedAt: '2026-12-01T09:00:00Z' });
 const fleet: Vehicle[] = [
-  { id: '1', label: 'W-01', model: 'Wren 50 two-stroke scooter', frameNumber: 'WR50-00117', hours: 310, lastDiagnosedAt: '2026-11-02T09:00:00Z' },
-  { id: '2', label: 'W-02', model: 'Wren 50 two-stroke scooter', frameNumber: '', hours: null, lastDiagnosedAt: '2026-12-01T09:00:00Z' },
-  { id: '3', label: 'B-01', model: 'Badger 110 youth quad', frameNumber: '1M8GDM9AXKP042788', hours: 95, lastDiagnosedAt: null },
-  { id: '4', label: 'H-10', model: 'Heron 125 pit bike', frameNumber: 'HR125-0042', hours: 12, lastDiagnosedAt: null },
+  vehicle({ id: '1', label: 'W-01', model: 'Wren 50 two-stroke scooter', frameNumber: 'WR50-00117', hours: 310, lastDiagnosedAt: '2026-11-02T09:00:00Z' }),
+  vehicle({ id: '2', label: 'W-02', model: 'Wren 50 two-stroke scooter', frameNumber: '', hours: null, lastDiagnosedAt: '2026-12-01T09:00:00Z' }),
+  vehicle({ id: '3', label: 'B-01', model: 'Badger 110 youth quad', frameNumber: '1M8GDM9AXKP042788', hours: 95, lastDiagnosedAt: null }),
+  vehicle({ id: '4', label: 'H-10', model: 'Heron 125 pit bike', frameNumber: 'HR125-0042', hours: 12, lastDiagnosedAt: null }),
 ];
 const labels = (q: string) => matchMachines(fleet, q).map((v) => v.label);
 

@@ -69,7 +69,10 @@ function localDiagnosis(id: string, vehicleLabel: string): DbModule.LocalDiagnos
   const now = new Date().toISOString();
   return { id, versionId: 'v1', procedureTitle: 'No spark', vehicleLabel, meterEntries: [], startedAt: now, rows: [], photos: [], status: 'active', updatedAt: now };
 }
-const start = (id: string): DbModule.OutboxMessage => ({ kind: 'start', body: { id, vehicleId: 'w-02' } });
+const start = (id: string): DbModule.OutboxMessage => ({
+  kind: 'start',
+  body: { id, procedureVersionId: 'v1', vehicleId: 'w-02', complaint: 'No spark', conditions: { engine: 'cold', ambientC: 18, startingMethod: 'kick' }, startedAt: '2026-12-02T08:00:00Z' },
+});
 const step = (id: string): DbModule.OutboxMessage => ({
   kind: 'step', body: { id, stepId: 'prepare', after: null, note: '', startedAt: '2026-12-02T08:00:00Z', answeredAt: '2026-12-02T08:01:00Z' },
 });

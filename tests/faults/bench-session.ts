@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { createSequelize } from '../../server/db';
 import { initModels, Meter, Procedure, ProcedureVersion, Shop, Vehicle } from '../../server/models';
 import { doc, ohmsReading } from '../shared/fixtures';
+import type { DiagnosisStepBody, StartDiagnosisBody } from '@shared/schema/bench';
 import { FAULTS_PASSWORD } from './processes';
 
 // A signed-in member talking to real app servers over HTTP (fetch), and a procedure whose one
@@ -90,7 +91,7 @@ export async function publishLoopProcedure(url: string): Promise<LoopWorld> {
   }
 }
 
-export function startBody(w: LoopWorld, id = randomUUID()) {
+export function startBody(w: LoopWorld, id = randomUUID()): StartDiagnosisBody {
   return {
     id, procedureVersionId: w.versionId, vehicleId: w.vehicleId, meterId: w.meterId,
     complaint: 'Cranks but will not fire', conditions: { engine: 'cold', ambientC: 18, startingMethod: 'kick', batteryVolts: null },
@@ -99,7 +100,7 @@ export function startBody(w: LoopWorld, id = randomUUID()) {
 }
 
 /** One answer to the looping Reading, following `after` (null for the first). */
-export function loopStep(after: string | null, entered = '0,15k', id: string = randomUUID()) {
+export function loopStep(after: string | null, entered = '0,15k', id: string = randomUUID()): DiagnosisStepBody & { note: string } {
   const now = new Date().toISOString();
   return { id, after, stepId: 'exciter', entered, note: '', startedAt: now, answeredAt: now };
 }

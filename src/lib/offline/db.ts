@@ -1,21 +1,12 @@
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
+import type { BenchVersion, DiagnosisStepBody, StartDiagnosisBody } from '@shared/schema/bench';
+import type { MeterEntry } from '@shared/engine/meter';
 
-/** One answered step as the phone keeps it; `after` links it into the path (null = the start). */
-export interface LocalRow {
-  id: string;
-  stepId: string;
-  after: string | null;
-  entered?: string;
-  leadEntered?: string;
-  answerId?: string;
-  acknowledged?: boolean;
-  /** When the DANGER note was acknowledged (ISO time). */
-  acknowledgedAt?: string;
-  note: string;
-  outcome?: Record<string, unknown>;
-  startedAt: string;
-  answeredAt: string;
-}
+/**
+ * One answered step as the phone keeps it: the body of the step message it sends (the shared
+ * Bench contract); `after` links it into the path (null = the start).
+ */
+export type LocalRow = DiagnosisStepBody & { note: string };
 
 export interface LocalPhoto { id: string; stepId: string | null; name: string; thumbUrl: string }
 
@@ -25,7 +16,7 @@ export interface LocalDiagnosis {
   versionId: string;
   procedureTitle: string;
   vehicleLabel: string;
-  meterEntries: { quantity: string; percentOfReading: number; counts: number; resolution: number }[];
+  meterEntries: MeterEntry[];
   startedAt: string;
   rows: LocalRow[];
   photos: LocalPhoto[];
@@ -34,11 +25,11 @@ export interface LocalDiagnosis {
 }
 
 /** A published version kept on the phone; `branchCounts` are the shop's recorded branch frequencies when it was fetched. */
-export interface LocalVersion { id: string; slug: string; title: string; number: number; document: unknown; branchCounts?: Record<string, Record<string, number>> }
+export type LocalVersion = Pick<BenchVersion, 'id' | 'slug' | 'title' | 'number' | 'document'> & { branchCounts?: BenchVersion['branchCounts'] };
 
 /** What waits to be sent, in order. `seq` is the outbox order; `diagnosisId` groups it. */
 export type OutboxMessage =
-  | { kind: 'start'; body: Record<string, unknown> }
+  | { kind: 'start'; body: StartDiagnosisBody }
   | { kind: 'step'; body: LocalRow }
   | { kind: 'photo'; id: string; stepId: string | null; name: string; photo: Blob; thumb: Blob | null };
 

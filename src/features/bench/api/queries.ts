@@ -1,7 +1,9 @@
 import { queryOptions } from '@tanstack/react-query';
 import { api, qs } from '../../../lib/api-client';
 import { keptOnPhone } from '../lib/kit';
-import type { BenchProcedure, DiagnosisRecord, DiagnosisSummary, Meter, Vehicle } from './types';
+import type { BenchProcedure, DiagnosisRecord, DiagnosisSummary } from '@shared/schema/bench';
+import type { MeterDto } from '@shared/schema/shop';
+import type { VehicleDto } from '@shared/schema/vehicle';
 
 /** Every Bench query key and fetcher, in one place. */
 export const benchQueries = {
@@ -13,11 +15,11 @@ export const benchQueries = {
   }),
   vehicles: () => queryOptions({
     queryKey: [...benchQueries.all, 'vehicles'] as const,
-    queryFn: () => keptOnPhone('vehicles', () => api.get<Vehicle[]>('/api/vehicles')),
+    queryFn: () => keptOnPhone('vehicles', () => api.get<VehicleDto[]>('/api/vehicles')),
   }),
   meters: () => queryOptions({
     queryKey: [...benchQueries.all, 'meters'] as const,
-    queryFn: () => keptOnPhone('meters', () => api.get<Meter[]>('/api/shop/meters')),
+    queryFn: () => keptOnPhone('meters', () => api.get<MeterDto[]>('/api/shop/meters')),
   }),
   diagnoses: (status?: string) => queryOptions({
     queryKey: [...benchQueries.all, 'diagnoses', status ?? 'all'] as const,

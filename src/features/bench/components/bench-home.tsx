@@ -7,7 +7,7 @@ import { PageHeader, Badge } from '../../../components/ui/card';
 import { LinkButton } from '../../../components/ui/button';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
-import type { DiagnosisSummary } from '../api/types';
+import type { DiagnosisSummary } from '@shared/schema/bench';
 import { SyncBadge } from './sync-badge';
 import { resumeFromServer } from '../lib/resume';
 

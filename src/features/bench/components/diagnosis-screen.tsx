@@ -4,7 +4,7 @@ import { pathFigures } from '@shared/engine/figures';
 import { stepView } from '@shared/engine/step-view';
 import { formatReading } from '@shared/measure/format';
 import type { ProcedureDocument } from '@shared/schema/procedure';
-import type { PathStep } from '@shared/engine/walk';
+import { remeasuredAt, type PathStep } from '@shared/engine/walk';
 import { Alert, Spinner } from '../../../components/ui/card';
 import { LinkButton } from '../../../components/ui/button';
 import type { LocalPhoto } from '../../../lib/offline/db';
@@ -28,12 +28,6 @@ function useSecondsSince(since: number): number {
 function StepTimer({ since }: { since: number }) {
   const s = useSecondsSince(since);
   return <span className="tabular-nums" aria-label="Time on this step">{Math.floor(s / 60)}:{String(s % 60).padStart(2, '0')}</span>;
-}
-
-function remeasuredAt(path: readonly { stepId: string; outcome: string }[], stepId: string): number {
-  let n = 0;
-  for (let i = path.length - 1; i >= 0 && path[i]!.stepId === stepId && path[i]!.outcome === 're-measure'; i--) n++;
-  return n;
 }
 
 /**

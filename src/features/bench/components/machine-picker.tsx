@@ -1,7 +1,7 @@
 import { useMemo, useState } from 'react';
 import { Input } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import type { Vehicle } from '../api/types';
+import type { VehicleDto as Vehicle } from '@shared/schema/vehicle';
 import { matchMachines } from '../lib/machines';
 import { QuickVehicle } from './quick-vehicle';
 

@@ -5,7 +5,7 @@ import { Alert } from '../../../components/ui/card';
 import { Button } from '../../../components/ui/button';
 import { Field, Input } from '../../../components/ui/field';
 import { benchQueries } from '../api/queries';
-import type { Vehicle } from '../api/types';
+import type { VehicleDto as Vehicle } from '@shared/schema/vehicle';
 
 /** Adds a machine from the start page; the new machine is in the list (and picked) at once. */
 export function QuickVehicle({ onAdded, initialLabel = '' }: { onAdded(v: Vehicle): void; initialLabel?: string }) {

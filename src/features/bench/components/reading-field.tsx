@@ -1,7 +1,7 @@
 import { useId, useRef, useState } from 'react';
 import type { ReadingStep } from '@shared/schema/procedure';
-import { parseReading } from '@shared/measure/parse';
-import { decideReading, type ReadingDecision } from '@shared/measure/verdict';
+import type { ReadingDecision } from '@shared/measure/verdict';
+import { decideEntered } from '@shared/engine/reading-entry';
 import { formatReading } from '@shared/measure/format';
 import type { FormulaValue } from '@shared/measure/formula';
 import { VerdictPanel } from './verdict-panel';
@@ -10,20 +10,18 @@ const inputClass = 'w-full rounded-lg border-2 border-ink/70 bg-panel px-3 min-h
 
 export interface ReadingValue { entered: string; leadEntered: string; valid: boolean }
 
-/** The parsed value and the verdict it would get, live as the technician types. */
+/**
+ * The parsed value and the verdict it would get, live as the technician types: the same decision
+ * the walker (and so the server's record) makes of this answer.
+ */
 function preview(step: ReadingStep, text: string, lead: string, values: Readonly<Record<string, FormulaValue>>, remeasured: number) {
-  const parsed = parseReading(text, step.quantity, step.unit);
-  if (!parsed.ok) return { parsed, decision: null as ReadingDecision | null, leadError: null as string | null };
-  const leadParsed = step.leadNull && lead.trim() ? parseReading(lead, 'resistance', 'Ω') : null;
-  if (leadParsed && !leadParsed.ok) return { parsed, decision: null, leadError: `${leadParsed.error.message} ${leadParsed.error.suggestion}` };
-  const temp = step.winding ? values[step.winding.temperatureStep] : undefined;
-  const decision = decideReading({
-    value: parsed.reading.value, limits: step.limits, meter: step.meter, rule: step.decision,
-    leadResistance: leadParsed?.ok ? leadParsed.reading.value : undefined,
-    winding: step.winding && temp ? { temperature: temp.value, referenceTemperature: step.winding.referenceTemperature } : undefined,
-    bands: step.bands, borderline: step.borderline, remeasured,
-  });
-  return { parsed, decision, leadError: null };
+  const r = decideEntered(step, { text, leadText: lead }, values, remeasured);
+  if (r.ok) return { reading: r.reading, readingError: null, decision: r.decision as ReadingDecision | null, leadError: null as string | null };
+  if (!r.reading) return { reading: null, readingError: r.readingError ?? null, decision: null, leadError: null };
+  // Understood, but the test leads were not (or no engine temperature was measured on this path,
+  // which the winding line below says): no verdict, and the answer cannot be sent.
+  const leadError = r.code === 'bad-reading' ? `${r.message} ${r.readingError?.suggestion ?? ''}`.trim() : null;
+  return { reading: r.reading, readingError: null, decision: null, leadError };
 }
 
 /** Reading entry: numeric keyboard by default, a letters toggle for codes such as 4K7. */
@@ -39,7 +37,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
   const update = (t: string, l: string) => {
     setText(t); setLead(l);
     const r = t.trim() ? preview(step, t, l, values, remeasured) : null;
-    onChange({ entered: t, leadEntered: l, valid: !!r?.decision && !r.leadError });
+    onChange({ entered: t, leadEntered: l, valid: !!r?.decision });
   };
   const temp = step.winding ? values[step.winding.temperatureStep] : undefined;
   return (
@@ -47,7 +45,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
       <label htmlFor={id} className="block text-lg font-bold">Reading ({step.unit})</label>
       <div className="flex items-stretch gap-2">
         <input ref={input} id={id} className={inputClass} inputMode={letters ? 'text' : 'decimal'} autoComplete="off" autoCapitalize="characters" spellCheck={false}
-          value={text} disabled={disabled} aria-invalid={p ? !p.parsed.ok : undefined} aria-describedby={`${id}-feedback`}
+          value={text} disabled={disabled} aria-invalid={p ? !p.reading : undefined} aria-describedby={`${id}-feedback`}
           onChange={(e) => update(e.target.value, lead)} placeholder={`e.g. 0,4 or 4K7`} />
         <span className="flex min-w-14 items-center justify-center rounded-lg bg-ink px-3 text-xl font-bold text-white" aria-hidden>{step.unit}</span>
       </div>
@@ -56,8 +54,8 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
         {letters ? 'Number keypad' : 'Letters keypad (for 4K7, R47, 2k1)'}
       </button>
       <div id={`${id}-feedback`} aria-live="polite">
-        {p && !p.parsed.ok && <p className="rounded-lg bg-stop-soft p-3 text-lg text-ink"><strong className="text-stop">Not understood.</strong> {p.parsed.error.message} {p.parsed.error.suggestion}</p>}
-        {p && p.parsed.ok && <p className="text-lg">Understood as <strong data-testid="understood">{p.parsed.reading.understood}</strong></p>}
+        {p?.readingError && <p className="rounded-lg bg-stop-soft p-3 text-lg text-ink"><strong className="text-stop">Not understood.</strong> {p.readingError.message} {p.readingError.suggestion}</p>}
+        {p?.reading && <p className="text-lg">Understood as <strong data-testid="understood">{p.reading.understood}</strong></p>}
       </div>
       {step.leadNull && (
         <div>

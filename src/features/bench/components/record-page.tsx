@@ -8,7 +8,7 @@ import { PageHeader, Alert, Spinner, Badge } from '../../../components/ui/card';
 import { Button } from '../../../components/ui/button';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
-import type { DiagnosisRecord, RecordStep } from '../api/types';
+import type { DiagnosisRecord, RecordStep, ReportResult } from '@shared/schema/bench';
 import { SyncBadge } from './sync-badge';
 
 const VERDICT: Record<string, [string, 'go' | 'stop' | 'edge']> = {
@@ -58,9 +58,11 @@ function TimelineStep({ s, attachments }: { s: RecordStep; attachments: Diagnosi
 }
 
 function Outcome({ outcome }: { outcome: NonNullable<DiagnosisRecord['outcome']> }) {
+  if ('reason' in outcome) {
+    return <section className="rounded-lg border-2 border-ink/30 bg-panel p-3"><p><strong>Handed off:</strong> {outcome.reason}</p></section>;
+  }
   return (
     <section className="rounded-lg border-2 border-ink/30 bg-panel p-3">
-      {outcome.reason && <p><strong>Handed off:</strong> {outcome.reason}</p>}
       {outcome.partsFitted && <p><strong>Parts fitted:</strong> {outcome.partsFitted.map((p) => `${p.name}${p.lot ? ` (lot ${p.lot})` : ''}`).join(', ') || 'none'}</p>}
       {outcome.finalCheck && <p><strong>Final check:</strong> spark {yesNo(outcome.finalCheck.spark)}, runs {yesNo(outcome.finalCheck.runs)}, stops {yesNo(outcome.finalCheck.stops)}</p>}
       {outcome.labourMinutes !== undefined && <p><strong>Labour:</strong> {outcome.labourMinutes} min</p>}
@@ -88,7 +90,7 @@ export function RecordPage() {
   const r = record.data;
   const email = async () => {
     setError(null);
-    try { setSent((await api.post<{ sentTo: string }>(`/api/diagnoses/${id}/report`, {})).sentTo); } catch (e) { setError(e instanceof ApiError ? e.message : 'Not sent.'); }
+    try { setSent((await api.post<ReportResult>(`/api/diagnoses/${id}/report`, {})).sentTo); } catch (e) { setError(e instanceof ApiError ? e.message : 'Not sent.'); }
   };
   return (
     <div className="mx-auto max-w-3xl space-y-4 pb-16">

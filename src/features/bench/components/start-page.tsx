@@ -8,7 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { Field, Input, Select, Textarea } from '../../../components/ui/field';
 import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
-import type { Meter } from '../api/types';
+import type { MeterDto as Meter } from '@shared/schema/shop';
 import { MachinePicker } from './machine-picker';
 import { startDiagnosis, type StartForm } from '../lib/start';
 import { filterProcedures, keepVersions } from '../lib/kit';

@@ -1,6 +1,6 @@
 import { api, ApiError } from '../../../lib/api-client';
 import { getVersion, readKit, saveKit, saveVersion } from '../../../lib/offline/db';
-import type { BenchProcedure, BenchVersion } from '../api/types';
+import type { BenchProcedure, BenchVersion } from '@shared/schema/bench';
 
 // What a phone needs to start a diagnosis without signal: the published procedures with their
 // pinned versions, the shop's machines and its meters, as last fetched with signal.

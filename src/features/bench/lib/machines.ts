@@ -1,4 +1,4 @@
-import type { Vehicle } from '../api/types';
+import type { VehicleDto as Vehicle } from '@shared/schema/vehicle';
 
 /** Frame numbers and VINs are compared without spaces, dashes and case: "1m8 gdm9" finds 1M8GDM9AXKP042788. */
 const compact = (s: string) => s.replace(/[\s-]+/g, '').toUpperCase();

@@ -1,22 +1,20 @@
 import { api } from '../../../lib/api-client';
 import { commitLocal, getVersion, saveVersion, type LocalRow } from '../../../lib/offline/db';
-import type { BenchVersion, RecordWithMeter } from '../api/types';
+import type { BenchVersion, DiagnosisRecord } from '@shared/schema/bench';
+import { enteredOf } from '@shared/engine/step-entry';
 
 /**
  * Brings a diagnosis started on another phone onto this one: the pinned version and the answers
  * on its current path (the server already holds them, so nothing goes to the outbox).
  */
 export async function resumeFromServer(id: string): Promise<void> {
-  const record = await api.get<RecordWithMeter>(`/api/diagnoses/${id}`);
+  const record = await api.get<DiagnosisRecord>(`/api/diagnoses/${id}`);
   if (!(await getVersion(record.versionId))) await saveVersion(await api.get<BenchVersion>(`/api/bench/versions/${record.versionId}`));
   const rows: LocalRow[] = [];
   for (const s of record.steps.filter((x) => !x.superseded)) {
     rows.push({
       id: s.id, stepId: s.stepId, after: rows[rows.length - 1]?.id ?? null, note: s.note, startedAt: s.startedAt, answeredAt: s.answeredAt,
-      ...(s.kind === 'reading' && s.entered !== null ? { entered: s.entered } : {}),
-      ...(s.shown.leadEntered ? { leadEntered: s.shown.leadEntered } : {}),
-      ...(s.answerId ? { answerId: s.answerId } : {}),
-      ...(s.shown.acknowledged ? { acknowledged: true } : {}),
+      ...enteredOf(s),
     });
   }
   await commitLocal({

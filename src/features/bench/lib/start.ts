@@ -1,7 +1,9 @@
 import { api } from '../../../lib/api-client';
 import { commitLocal, findVersionBySlug, type LocalVersion } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
-import type { Meter, Vehicle } from '../api/types';
+import type { Conditions, StartDiagnosisBody } from '@shared/schema/bench';
+import type { MeterDto } from '@shared/schema/shop';
+import type { VehicleDto } from '@shared/schema/vehicle';
 import { fetchVersion, isOffline } from './kit';
 
 export interface StartForm {
@@ -32,13 +34,14 @@ async function versionFor(slug: string): Promise<LocalVersion> {
  * the outbox ahead of the steps, and the diagnosis runs on the version kept on the phone.
  * Returns the new diagnosis id.
  */
-export async function startDiagnosis(form: StartForm, vehicle: Vehicle | undefined, meter: Meter | undefined): Promise<string> {
+export async function startDiagnosis(form: StartForm, vehicle: VehicleDto | undefined, meter: MeterDto | undefined): Promise<string> {
   const version = await versionFor(form.slug);
   const id = crypto.randomUUID();
   const now = new Date().toISOString();
-  const body = {
+  const body: StartDiagnosisBody = {
     id, procedureVersionId: version.id, vehicleId: form.vehicleId, meterId: meter?.id ?? null, complaint: form.complaint, startedAt: now,
-    conditions: { engine: form.engine, ambientC: decimal(form.ambientC), startingMethod: form.startingMethod, batteryVolts: form.batteryVolts ? decimal(form.batteryVolts) : null },
+    // The form holds what the selects offer; the server checks the values against the same schema.
+    conditions: { engine: form.engine as Conditions['engine'], ambientC: decimal(form.ambientC), startingMethod: form.startingMethod as Conditions['startingMethod'], batteryVolts: form.batteryVolts ? decimal(form.batteryVolts) : null },
   };
   let queued = false;
   try {

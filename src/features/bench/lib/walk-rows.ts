@@ -1,5 +1,6 @@
 import { walkProcedure, type WalkEntry, type WalkState } from '@shared/engine/walk';
 import type { ProcedureDocument } from '@shared/schema/procedure';
+import { walkEntryOf } from '@shared/engine/step-entry';
 import type { LocalRow } from '../../../lib/offline/db';
 
 export { withMeter, type MeterEntry } from '@shared/engine/meter';
@@ -14,14 +15,7 @@ export function pathRows(rows: readonly LocalRow[]): LocalRow[] {
   return path;
 }
 
-function entryOf(doc: ProcedureDocument, row: LocalRow): WalkEntry | null {
-  const step = doc.steps.find((s) => s.id === row.stepId);
-  const acknowledged = row.acknowledged ?? false;
-  if (step?.kind === 'reading') return { stepId: row.stepId, acknowledged, answer: { kind: 'reading', text: row.entered ?? '', ...(row.leadEntered ? { leadText: row.leadEntered } : {}) } };
-  if (step?.kind === 'observation') return { stepId: row.stepId, acknowledged, answer: { kind: 'observation', answerId: row.answerId ?? '' } };
-  if (step?.kind === 'task') return { stepId: row.stepId, acknowledged, answer: { kind: 'task' } };
-  return null; // Formulas are computed and endings end: the walker needs no entry for them
-}
+const entryOf = (doc: ProcedureDocument, row: LocalRow): WalkEntry | null => walkEntryOf(doc.steps.find((s) => s.id === row.stepId), row);
 
 export interface Walked { state: WalkState; path: LocalRow[] }
 
