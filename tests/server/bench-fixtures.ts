@@ -3,8 +3,10 @@ import { readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { doc, finding, handoff, ohmsReading, observation, task } from '../shared/fixtures';
 import { Meter, Procedure, ProcedureVersion, Shop, Vehicle } from '../../server/models';
-import type { TestEnv } from './harness';
+import { afterAll, beforeAll } from 'vitest';
+import { signInAs, startTestApp, type Client, type TestEnv } from './harness';
 import type { StepInput } from '@shared/schema';
+import type { StartDiagnosisBody } from '@shared/schema/bench';
 
 /**
  * A small published procedure with every step kind, so the Bench API tests do not depend on the
@@ -40,7 +42,22 @@ export async function publishBenchProcedure(): Promise<BenchWorld> {
   return { versionId: version.id, vehicleId: vehicle.id, meterId: meter.id, shopId: shop.id };
 }
 
-export function startBody(w: BenchWorld, id = randomUUID()) {
+/**
+ * A Bench API suite's world, filled before its tests: a test app on the real PostgreSQL, benchDoc
+ * published, a signed-in technician; the app closes after them.
+ */
+export function benchSuite(): { readonly env: TestEnv; readonly tech: Client; readonly world: BenchWorld } {
+  const s = {} as { env: TestEnv; tech: Client; world: BenchWorld };
+  beforeAll(async () => {
+    s.env = await startTestApp();
+    s.world = await publishBenchProcedure();
+    s.tech = await signInAs(s.env.app, 'tech');
+  });
+  afterAll(async () => s.env?.close());
+  return s;
+}
+
+export function startBody(w: BenchWorld, id = randomUUID()): StartDiagnosisBody & { id: string } {
   return {
     id, procedureVersionId: w.versionId, vehicleId: w.vehicleId, meterId: w.meterId,
     complaint: 'Cranks but will not fire', conditions: { engine: 'cold', ambientC: 18, startingMethod: 'kick', batteryVolts: null },
