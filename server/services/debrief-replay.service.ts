@@ -2,6 +2,7 @@ import type { ShopContext } from '../auth/context';
 import { findDiagnosisRow } from './debrief-diagnoses.service';
 import { notesOf } from './coaching.service';
 import type { Replay, ReplayStep } from '@shared/stats/debrief-answers';
+import type { StepShown } from '@shared/schema/bench';
 import { parseDocument, type Sql } from './debrief-scope';
 
 export type { ReplayStep, Replay } from '@shared/stats/debrief-answers';
@@ -20,7 +21,7 @@ export async function replayDiagnosis(sql: Sql, ctx: ShopContext, id: string): P
     notesOf(sql, ctx.shopId, id),
   ]);
   const timeline: ReplayStep[] = steps.map((s) => ({
-    id: String(s.id), seq: Number(s.seq), stepId: String(s.step_id), kind: String(s.kind), shown: (s.shown ?? {}) as Record<string, unknown>,
+    id: String(s.id), seq: Number(s.seq), stepId: String(s.step_id), kind: String(s.kind), shown: s.shown as StepShown,
     entered: (s.entered as string | null) ?? null, value: s.value === null ? null : Number(s.value), unit: (s.unit as string | null) ?? null,
     verdict: (s.verdict as string | null) ?? null, bandId: (s.band_id as string | null) ?? null, answerId: (s.answer_id as string | null) ?? null,
     superseded: Boolean(s.superseded), note: String(s.note ?? ''), startedAt: iso(s.started_at), answeredAt: iso(s.answered_at),

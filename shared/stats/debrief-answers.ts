@@ -1,4 +1,5 @@
 import type { ProcedureDocument } from '../schema';
+import type { StepShown } from '../schema/bench';
 import type { DiagnosisRow } from './debrief-schema';
 
 // Shapes of the Debrief answers, written by server/services/debrief-*.ts and read by the client.
@@ -18,7 +19,8 @@ export interface ReplayStep {
   seq: number;
   stepId: string;
   kind: string;
-  shown: Record<string, unknown>;
+  /** What the Bench showed at the step, as the step endpoint recorded it (the Bench contract). */
+  shown: StepShown;
   entered: string | null;
   value: number | null;
   unit: string | null;

@@ -22,16 +22,12 @@ function answerLabel(doc: ProcedureDocument, s: ReplayStep): string | null {
   return step.kind === 'task' ? step.confirmLabel : null;
 }
 
-function limitsText(shown: Record<string, unknown>): string | null {
-  return typeof shown.limitsText === 'string' ? shown.limitsText : null;
-}
-
 /** "value ± U" as the interval the verdict used (meter uncertainty), when the step recorded one. */
 function intervalText(s: ReplayStep): string | null {
-  const i = s.shown.interval as { low?: number; high?: number } | null | undefined;
-  if (!i || typeof i.low !== 'number' || typeof i.high !== 'number') return null;
-  const q = typeof s.shown.quantity === 'string' ? s.shown.quantity : null;
-  const unit = typeof s.shown.unit === 'string' ? s.shown.unit : null;
+  const i = s.shown.interval;
+  if (!i) return null;
+  const q = s.shown.quantity ?? null;
+  const unit = s.shown.unit ?? null;
   return `${formatValue(i.low, q, unit)} to ${formatValue(i.high, q, unit)}`;
 }
 
@@ -41,7 +37,7 @@ export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay;
   return (
     <ol className="flex flex-col gap-2" aria-label="Timeline of steps">
       {replay.steps.map((s) => {
-        const title = (s.shown.title as string | undefined) ?? replay.document.steps.find((x) => x.id === s.stepId)?.title ?? s.stepId;
+        const title = s.shown.title ?? replay.document.steps.find((x) => x.id === s.stepId)?.title ?? s.stepId;
         const verdict = s.verdict ? VERDICT[s.verdict] : undefined;
         const answer = answerLabel(replay.document, s);
         const photos = replay.photos.filter((p) => p.stepId === s.stepId);
@@ -56,11 +52,11 @@ export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay;
               {verdict && <Badge tone={verdict.tone}>{verdict.label}</Badge>}
               {answer && <span className="text-ink-soft">→ {answer}</span>}
               {s.superseded && <Badge tone="neutral">Taken back, answered again</Badge>}
-              {limitsText(s.shown) && <span className="text-ink-soft">Limits shown: {limitsText(s.shown)}</span>}
+              {s.shown.limitsText && <span className="text-ink-soft">Limits shown: {s.shown.limitsText}</span>}
               {intervalText(s) && <span className="text-ink-soft">Interval with the meter's uncertainty: {intervalText(s)}</span>}
-              {typeof s.shown.leadEntered === 'string' && <span className="text-ink-soft">Test leads nulled at {s.shown.leadEntered}</span>}
+              {s.shown.leadEntered && <span className="text-ink-soft">Test leads nulled at {s.shown.leadEntered}</span>}
             </div>
-            {typeof s.shown.question === 'string' && <p className="mt-1 text-sm text-ink-soft">Asked: {s.shown.question}</p>}
+            {s.shown.question && <p className="mt-1 text-sm text-ink-soft">Asked: {s.shown.question}</p>}
             {s.note && <p className="mt-1 text-sm">Technician's note: {s.note}</p>}
             {photos.length > 0 && (
               <div className="mt-2 flex flex-wrap gap-2">
