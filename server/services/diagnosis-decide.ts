@@ -2,7 +2,7 @@ import type { ProcedureDocument, Step } from '@shared/schema/procedure';
 import { ProcedureWalk, type PathStep, type WalkProblem } from '@shared/engine/walk';
 import { walkEntryOf } from '@shared/engine/step-entry';
 import { limitsView } from '@shared/engine/step-view';
-import type { StepShown } from '@shared/schema/bench';
+import type { DiagnosisStepBody, StepShown } from '@shared/schema/bench';
 import { recordedBranch, resolveLimits, type Verdict } from '@shared/measure/verdict';
 import { QUANTITY_INFO } from '@shared/measure/quantities';
 import { AppError, badRequest } from '../lib/errors';
@@ -13,7 +13,8 @@ export interface PathRow {
   entered: string | null; lead: string | null; answerId: string | null; acknowledged: boolean;
 }
 
-export interface StepAnswer { stepId: string; entered?: string | undefined; leadEntered?: string | undefined; answerId?: string | undefined; acknowledged?: boolean | undefined; acknowledgedAt?: string | undefined }
+/** The fields of an arriving step body that decide it (the Bench contract's step body). */
+export type StepAnswer = Pick<DiagnosisStepBody, 'stepId' | 'entered' | 'leadEntered' | 'answerId' | 'acknowledged' | 'acknowledgedAt'>;
 
 export interface DecidedStep {
   entered: string | null; value: number | null; unit: string | null; verdict: Verdict | null;

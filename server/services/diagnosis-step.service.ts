@@ -6,14 +6,14 @@ import { checkDiagnosis } from '../auth/policy';
 import { AppError, notFound } from '../lib/errors';
 import { parseInput } from '../lib/validate';
 import { loadPinnedVersion } from './bench.service';
-import { decideStep, withMeter, type PathRow } from './diagnosis-decide';
+import { decideStep, withMeter, type MeterEntry, type PathRow } from './diagnosis-decide';
 import type { ProcedureWalk } from '@shared/engine/walk';
 import { FindingOutcomeInput, HandoffOutcomeInput, type DiagnosisStatus, type DiagnosisStepInput, type StepResult } from '@shared/schema/bench';
 import { notifyHandoff } from './report.service';
 
 interface Head {
   status: DiagnosisStatus; technician_id: string; procedure_version_id: string; max_seq: number;
-  meter: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] | null;
+  meter: MeterEntry[] | null;
   path: PathRow[];
   /** Kept in memory only: the walk over exactly `path`, so the next answer is not a replay. */
   walk?: ProcedureWalk | undefined;

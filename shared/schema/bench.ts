@@ -51,6 +51,8 @@ export const HandoffOutcomeInput = z.object({
   reason: z.string().trim().min(1, 'Say why you hand the machine on').max(2000),
 });
 export type HandoffOutcome = z.infer<typeof HandoffOutcomeInput>;
+/** What the phone sends with the step that ends the diagnosis: a Finding's or a Hand-off's outcome. */
+export type EndingOutcome = z.input<typeof FindingOutcomeInput> | z.input<typeof HandoffOutcomeInput>;
 
 /** Body of `POST /api/diagnoses/:id/steps`: one answered step, linked after the one it follows. */
 export const DiagnosisStepInput = z.object({
@@ -72,11 +74,8 @@ export const DiagnosisStepInput = z.object({
   answeredAt: isoTime,
 });
 export type DiagnosisStepInput = z.infer<typeof DiagnosisStepInput>;
-/**
- * What the phone sends for a step and keeps as its row (defaults may be left out). The outcome
- * is checked against the Finding or Hand-off it ends on when it arrives.
- */
-export type DiagnosisStepBody = Omit<z.input<typeof DiagnosisStepInput>, 'outcome'> & { outcome?: Record<string, unknown> };
+/** What the phone sends for a step and keeps as its row (defaults may be left out). */
+export type DiagnosisStepBody = z.input<typeof DiagnosisStepInput>;
 
 export const DIAGNOSIS_STATUSES = ['active', 'finished', 'handed_off', 'abandoned'] as const;
 export const diagnosisStatusSchema = z.enum(DIAGNOSIS_STATUSES);

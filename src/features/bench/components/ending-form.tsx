@@ -1,12 +1,13 @@
 import { useState, type ReactNode } from 'react';
 import type { StepView } from '@shared/engine/step-view';
+import type { EndingOutcome, FindingOutcome } from '@shared/schema/bench';
 import { SafetyBlock } from './step-card';
 
 const input = 'mt-1 w-full rounded-lg border-2 border-ink/70 bg-panel px-3 min-h-12 text-lg font-normal';
 const check = 'flex min-h-14 items-center gap-3 rounded-lg border-2 border-ink/30 bg-panel px-3 text-lg font-semibold';
 
 interface Part { name: string; lot: string; fitted: boolean }
-type FinalCheck = Record<'spark' | 'runs' | 'stops', boolean>;
+type FinalCheck = FindingOutcome['finalCheck'];
 
 const FINAL_CHECKS = [['spark', 'Spark present at the tester'], ['runs', 'Engine starts and runs'], ['stops', 'Every stop path (kill switch, key) stops the engine']] as const;
 
@@ -58,7 +59,7 @@ function FindingFields({ view, parts, onParts, final, onFinal, labour, onLabour 
 }
 
 /** A Finding: what was done, the final check and the labour; a Hand-off: the reason. */
-export function EndingForm({ view, photos, onFinish }: { view: StepView; photos: ReactNode; onFinish(outcome: Record<string, unknown>, note: string): Promise<void> }) {
+export function EndingForm({ view, photos, onFinish }: { view: StepView; photos: ReactNode; onFinish(outcome: EndingOutcome, note: string): Promise<void> }) {
   // the form's state lives here, not in the fields, so it stays while the screen around it re-renders
   const [parts, setParts] = useState<Part[]>(() => (view.parts ?? []).map((p) => ({ name: p.name, lot: '', fitted: true })));
   const [final, setFinal] = useState<FinalCheck>({ spark: false, runs: false, stops: false });

@@ -2,12 +2,14 @@ import { useCallback, useEffect, useMemo, useState } from 'react';
 import { flushSync } from 'react-dom';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { BranchCounts } from '@shared/engine/figures';
+import type { EndingOutcome } from '@shared/schema/bench';
 import { commitLocal, getLocalDiagnosis, getVersion, type LocalDiagnosis, type LocalRow, type OutboxMessage } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
 import { afterFor, formulaRows, walkRows, withMeter, type Walked } from '../lib/walk-rows';
 import { makeThumbnail } from '../lib/thumbnail';
 
-export interface Answer { stepId: string; entered?: string; leadEntered?: string; answerId?: string; acknowledged?: boolean; acknowledgedAt?: string; note: string; startedAt: string }
+/** What the step screen hands over for an answer: the step body without its ids and times (added here). */
+export type Answer = Pick<LocalRow, 'stepId' | 'entered' | 'leadEntered' | 'answerId' | 'acknowledged' | 'acknowledgedAt' | 'note' | 'startedAt'>;
 
 export interface LocalDiagnosisApi {
   loading: boolean;
@@ -19,7 +21,7 @@ export interface LocalDiagnosisApi {
   walked: Walked | null;
   /** Answers the current step, or (with `index`) the step at that place on the path, going back. */
   answer(a: Answer, index?: number): Promise<void>;
-  finish(stepId: string, outcome: Record<string, unknown>, note: string, startedAt: string): Promise<void>;
+  finish(stepId: string, outcome: EndingOutcome, note: string, startedAt: string): Promise<void>;
   addPhoto(file: File, stepId: string | null): Promise<void>;
 }
 
@@ -87,7 +89,7 @@ export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
     await save({ ...diagnosis, rows: [...rows, ...computed] }, [row, ...computed].map((body) => ({ kind: 'step', body })));
   }, [doc, diagnosis, walked, save]);
 
-  const finish = useCallback(async (stepId: string, outcome: Record<string, unknown>, note: string, startedAt: string) => {
+  const finish = useCallback(async (stepId: string, outcome: EndingOutcome, note: string, startedAt: string) => {
     if (!doc || !diagnosis || !walked) return;
     const step = doc.steps.find((s) => s.id === stepId);
     const row: LocalRow = { id: crypto.randomUUID(), stepId, after: afterFor(walked.path, walked.path.length), note, outcome, startedAt, answeredAt: new Date().toISOString() };
