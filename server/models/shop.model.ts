@@ -14,6 +14,8 @@ export class Shop extends Model<InferAttributes<Shop>, InferCreationAttributes<S
   declare name: string;
   declare slug: string;
   declare settings: CreationOptional<ShopSettings>;
+  /** BCP 47 tag for dates and numbers ("de-DE"); null: each device follows its browser. */
+  declare locale: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -24,6 +26,7 @@ export class Shop extends Model<InferAttributes<Shop>, InferCreationAttributes<S
         name: { type: DataTypes.TEXT, allowNull: false },
         slug: { type: DataTypes.TEXT, allowNull: false, unique: true },
         settings: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+        locale: { type: DataTypes.TEXT, allowNull: true, defaultValue: null },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

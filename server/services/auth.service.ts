@@ -15,12 +15,12 @@ export const RESET_LINK_MINUTES = 60;
 export async function describeMe(user: { id: string; email: string; name: string }, currentShopId: string | undefined): Promise<Me> {
   const memberships = await Membership.findAll({
     where: { userId: user.id, disabledAt: null },
-    include: [{ model: Shop, as: 'shop', attributes: ['id', 'name'] }],
+    include: [{ model: Shop, as: 'shop', attributes: ['id', 'name', 'locale'] }],
     order: [['createdAt', 'ASC']],
   });
   const shops = memberships.map((m) => {
     const shop = (m as Membership & { shop: Shop }).shop;
-    return { id: shop.id, name: shop.name, roles: m.roles };
+    return { id: shop.id, name: shop.name, roles: m.roles, locale: shop.locale ?? null };
   });
   const current = shops.find((s) => s.id === currentShopId)?.id ?? shops[0]?.id ?? null;
   return { user: { id: user.id, email: user.email, name: user.name }, shops, currentShopId: current };

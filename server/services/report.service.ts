@@ -6,6 +6,13 @@ import { Shop } from '../models';
 import type { DiagnosisRecord } from '@shared/schema/bench';
 import { getRecord } from './diagnosis.service';
 import { audit } from './audit';
+import { localeFormat, type LocaleFormat } from '@shared/format/locale';
+
+/** The shop's locale for the texts it is sent; with the time zone named, since mail is read elsewhere. */
+async function shopFormat(ctx: ShopContext): Promise<{ shop: Shop | null; fmt: LocaleFormat }> {
+  const shop = await Shop.findByPk(ctx.shopId);
+  return { shop, fmt: localeFormat(shop?.locale, { withTimeZone: true }) };
+}
 
 const esc = (s: unknown) => String(s ?? '').replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
@@ -19,10 +26,10 @@ const VERDICT_WORDS: Record<string, string> = {
   'borderline-low': 'borderline (low)', 'borderline-high': 'borderline (high)',
 };
 
-function stepLine(s: RecordStep): string {
+function stepLine(s: RecordStep, fmt: LocaleFormat): string {
   const answer = s.entered ?? s.answerId ?? (s.kind === 'task' ? 'done' : '');
   const verdict = s.verdict ? ` — ${VERDICT_WORDS[s.verdict] ?? s.verdict}` : '';
-  const limits = s.shown.limitsText ? ` (limits ${s.shown.limitsText})` : '';
+  const limits = s.shown.limitsText ? ` (limits ${fmt.decimals(s.shown.limitsText)})` : '';
   return `${s.seq}. ${s.shown.title ?? s.stepId}: ${answer}${limits}${verdict}${s.superseded ? ' [changed later]' : ''}${s.note ? `\n   Note: ${s.note}` : ''}`;
 }
 
@@ -44,23 +51,23 @@ function outcomeText(r: DiagnosisRecord): string[] {
   return lines;
 }
 
-function reportText(r: DiagnosisRecord): string {
+function reportText(r: DiagnosisRecord, fmt: LocaleFormat): string {
   return [
     `Diagnosis report — ${r.procedureTitle} (version ${r.versionNumber})`,
     `Machine: ${r.vehicleLabel} ${r.vehicleModel} ${r.vehicleFrameNumber}`.trim(),
-    `Technician: ${r.technicianName}`, `Complaint: ${r.complaint}`, `Started: ${r.startedAt}`, '',
-    'Steps:', ...(r.steps as unknown as RecordStep[]).map(stepLine), '', ...outcomeText(r), '',
+    `Technician: ${r.technicianName}`, `Complaint: ${r.complaint}`, `Started: ${fmt.dateTime(r.startedAt)}`, '',
+    'Steps:', ...(r.steps as unknown as RecordStep[]).map((s) => stepLine(s, fmt)), '', ...outcomeText(r), '',
     "Limits shown are those of the procedure version; the manufacturer's service data and local regulations come first.",
   ].join('\n');
 }
 
-function reportHtml(r: DiagnosisRecord, thumbs: string[]): string {
+function reportHtml(r: DiagnosisRecord, fmt: LocaleFormat, thumbs: string[]): string {
   const rows = (r.steps as unknown as RecordStep[]).map((s) =>
     `<tr><td>${s.seq}</td><td>${s.superseded ? '<del>' : ''}${esc(s.shown.title ?? s.stepId)}${s.superseded ? '</del> (changed later)' : ''}</td>` +
-    `<td>${esc(s.entered ?? s.answerId ?? (s.kind === 'task' ? 'done' : ''))}</td><td>${esc(s.shown.limitsText ?? '')}</td>` +
+    `<td>${esc(s.entered ?? s.answerId ?? (s.kind === 'task' ? 'done' : ''))}</td><td>${esc(fmt.decimals(s.shown.limitsText ?? ''))}</td>` +
     `<td>${esc(s.verdict ? VERDICT_WORDS[s.verdict] : '')}</td><td>${esc(s.note)}</td></tr>`).join('');
   return `<h1>${esc(r.procedureTitle)} — ${esc(r.vehicleLabel)}</h1>
-<p>Technician: ${esc(r.technicianName)}<br>Complaint: ${esc(r.complaint)}<br>Started: ${esc(r.startedAt)}</p>
+<p>Technician: ${esc(r.technicianName)}<br>Complaint: ${esc(r.complaint)}<br>Started: ${esc(fmt.dateTime(r.startedAt))}</p>
 <table border="1" cellpadding="4" cellspacing="0"><tr><th>#</th><th>Step</th><th>Entered</th><th>Limits</th><th>Verdict</th><th>Note</th></tr>${rows}</table>
 <p>${outcomeText(r).map(esc).join('<br>')}</p>
 ${thumbs.map((cid) => `<img src="cid:${cid}" alt="Photo" width="160">`).join(' ')}
@@ -80,13 +87,13 @@ async function thumbnails(deps: AppDeps, ctx: ShopContext, id: string) {
 /** E-mails the readable report (readings, verdicts, finding, parts, photo thumbnails) to the service desk. */
 export async function emailReport(deps: AppDeps, ctx: ShopContext, id: string, to?: string): Promise<{ sentTo: string }> {
   const record = await getRecord(deps, ctx, id);
-  const shop = await Shop.findByPk(ctx.shopId);
+  const { shop, fmt } = await shopFormat(ctx);
   const desk = to ?? String((shop?.settings as { serviceDeskEmail?: string } | undefined)?.serviceDeskEmail ?? '');
   if (!desk) throw new AppError(400, 'no_service_desk', 'This shop has no service desk e-mail yet. Ask an admin to set it under Shop settings, or type an address.');
   const attachments = await thumbnails(deps, ctx, id);
   await deps.mailer.send({
     to: desk, subject: `Diagnosis report: ${record.vehicleLabel} — ${record.procedureTitle}`,
-    text: reportText(record), html: reportHtml(record, attachments.map((a) => a.cid)), attachments,
+    text: reportText(record, fmt), html: reportHtml(record, fmt, attachments.map((a) => a.cid)), attachments,
   });
   await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'diagnosis.report_sent', entity: 'diagnosis', entityId: id, detail: { to: desk } });
   return { sentTo: desk };
@@ -100,9 +107,10 @@ export async function notifyHandoff(deps: AppDeps, ctx: ShopContext, id: string)
       `SELECT u.email FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.shop_id = :shopId AND 'lead' = ANY(m.roles)`,
       { replacements: { shopId: ctx.shopId }, type: QueryTypes.SELECT });
     if (!leads.length) return;
+    const { fmt } = await shopFormat(ctx);
     await deps.mailer.send({
       to: leads.map((l) => l.email), subject: `Hand-off: ${record.vehicleLabel} needs a senior technician`,
-      text: reportText(record), html: reportHtml(record, []),
+      text: reportText(record, fmt), html: reportHtml(record, fmt, []),
     });
   } catch (err) {
     deps.log(`hand-off e-mail for diagnosis ${id} failed`, err);

@@ -8,6 +8,7 @@ import type { InviteInput } from '@shared/schema/auth';
 import type { Role } from '@shared/schema/roles';
 import type { ShopSettingsInput } from '@shared/schema/shop';
 import { audit } from './audit';
+import { localeFormat } from '@shared/format/locale';
 
 export const INVITATION_DAYS = 7;
 
@@ -118,7 +119,7 @@ export async function invite(deps: AppDeps, ctx: ShopContext, input: InviteInput
       to: input.email,
       subject: `You are invited to ${shop?.name ?? 'a shop'} on Sparkwright`,
       text: `Hello${input.name ? ' ' + input.name : ''},\n\n${inviter?.name ?? 'A shop admin'} invited you to join ${shop?.name ?? 'their shop'} ` +
-        `on Sparkwright as ${input.roles.join(', ')}.\n\nOpen this link within ${INVITATION_DAYS} days to accept; it works once:\n\n${link}\n`,
+        `on Sparkwright as ${input.roles.join(', ')}.\n\nOpen this link within ${INVITATION_DAYS} days (until ${localeFormat(shop?.locale, { withTimeZone: true }).dateTime(inv.expiresAt)}) to accept; it works once:\n\n${link}\n`,
     });
     return { id: inv.id, email: inv.email, roles: inv.roles, expiresAt: inv.expiresAt.toISOString() };
   });
@@ -133,13 +134,14 @@ export async function revokeInvitation(ctx: ShopContext, id: string) {
 export async function getSettings(ctx: ShopContext) {
   const shop = await Shop.findByPk(ctx.shopId);
   if (!shop) throw notFound('That shop');
-  return { name: shop.name, settings: { comebackDays: 30, abandonAfterHours: 24, serviceDeskEmail: '', ...shop.settings } };
+  return { name: shop.name, settings: { comebackDays: 30, abandonAfterHours: 24, serviceDeskEmail: '', ...shop.settings }, locale: shop.locale ?? null };
 }
 
 export async function updateSettings(ctx: ShopContext, input: ShopSettingsInput) {
   const shop = await Shop.findByPk(ctx.shopId);
   if (!shop) throw notFound('That shop');
-  await shop.update({ name: input.name, settings: { ...shop.settings, ...input.settings } });
-  await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'shop.settings_changed', entity: 'shop', entityId: shop.id });
+  const locale = input.locale === undefined ? {} : { locale: input.locale };
+  await shop.update({ name: input.name, settings: { ...shop.settings, ...input.settings }, ...locale });
+  await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'shop.settings_changed', entity: 'shop', entityId: shop.id, ...(input.locale === undefined ? {} : { detail: { locale: input.locale } }) });
   return getSettings(ctx);
 }

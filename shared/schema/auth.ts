@@ -29,7 +29,11 @@ export type InviteInput = z.infer<typeof InviteInput>;
 
 export const UpdateRolesInput = z.object({ roles: z.array(RoleSchema).min(1, 'Pick at least one role') });
 
-export interface ShopSummary { id: string; name: string; roles: z.infer<typeof RoleSchema>[] }
+export interface ShopSummary {
+  id: string; name: string; roles: z.infer<typeof RoleSchema>[];
+  /** The shop's BCP 47 locale for dates and numbers; null: follow the browser. */
+  locale: string | null;
+}
 export interface Me {
   user: { id: string; email: string; name: string };
   shops: ShopSummary[];

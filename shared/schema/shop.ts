@@ -1,5 +1,20 @@
 import { z } from 'zod';
 import { readingQuantitySchema } from './procedure';
+import { canonicalLocale } from '../format/locale';
+
+/**
+ * A shop's locale: a BCP 47 tag the runtime can format for, stored in its canonical form; null
+ * (or empty text) follows each device's browser. Example: "de-de" is stored as "de-DE".
+ */
+export const ShopLocaleSchema = z.string({ error: 'Send the locale as text, such as de-DE, or null to follow each device\'s browser' })
+  .max(64, 'Use a language tag of at most 64 characters, such as de-DE').nullable()
+  .transform((tag, ctx) => {
+    if (tag === null || tag.trim() === '') return null;
+    const canonical = canonicalLocale(tag);
+    if (canonical) return canonical;
+    ctx.addIssue({ code: 'custom', message: `"${tag.slice(0, 64)}" is not a language tag this app can format for. Pick one from the list, or type a BCP 47 tag such as de-DE or en-GB; leave it empty to follow each device's browser.` });
+    return z.NEVER;
+  });
 
 export const ShopSettingsInput = z.object({
   name: z.string().trim().min(1, 'Give the shop a name').max(120),
@@ -8,6 +23,8 @@ export const ShopSettingsInput = z.object({
     abandonAfterHours: z.number().min(1, 'At least 1 hour').max(24 * 30, 'At most 30 days'),
     serviceDeskEmail: z.union([z.literal(''), z.string().trim().toLowerCase().email('Enter an e-mail address or leave it empty')]),
   }),
+  /** Left out: the shop's locale stays as it is. */
+  locale: ShopLocaleSchema.optional(),
 });
 export type ShopSettingsInput = z.infer<typeof ShopSettingsInput>;
 

@@ -39,7 +39,7 @@ export function exampleBodies(w: ShopWorld, email: string): Record<string, unkno
     'POST /api/debrief/advisor/drafts': { versionId: w.versionId, order: ['pulserGap', 'exciter', 'killSwitch', 'coilPrimary'] },
     'PATCH /api/shop/members/:id': { roles: ['technician'] },
     'POST /api/shop/invitations': { email: 'fuzz-invitee@matrix.test', name: 'Fuzz', roles: ['technician'] },
-    'PUT /api/shop/settings': { name: 'Larkspur Lane Powersports', settings: { comebackDays: 30, abandonAfterHours: 24, serviceDeskEmail: 'desk@larkspur.test' } },
+    'PUT /api/shop/settings': { name: 'Larkspur Lane Powersports', settings: { comebackDays: 30, abandonAfterHours: 24, serviceDeskEmail: 'desk@larkspur.test' }, locale: 'de-DE' },
     'POST /api/shop/meters': { name: 'Fuzz meter', spec: { entries: [{ quantity: 'resistance', percentOfReading: 0.9, counts: 2, resolution: 0.1 }] } },
   };
 }
