@@ -38,6 +38,8 @@ export interface LocaleFormat {
   time(at: string | number | Date): string;
   /** The time of day with seconds: "10:42:07 AM", "10:42:07". */
   timeWithSeconds(at: string | number | Date): string;
+  /** The time of day alone when `at` falls on the same calendar day as `now`, else day and time. */
+  sameDayTime(at: string | number | Date, now?: string | number | Date): string;
 }
 
 export interface LocaleFormatOptions {
@@ -105,6 +107,8 @@ function build(locale: string | undefined, options: LocaleFormatOptions): Locale
     dateTime: (at) => dates.dateTime.format(toDate(at)),
     time: (at) => dates.time.format(toDate(at)),
     timeWithSeconds: (at) => dates.timeWithSeconds.format(toDate(at)),
+    sameDayTime: (at, now = Date.now()) =>
+      dates.date.format(toDate(at)) === dates.date.format(toDate(now)) ? dates.time.format(toDate(at)) : dates.dateTime.format(toDate(at)),
   };
 }
 

@@ -90,6 +90,11 @@ describe('dates and times in the shop locale (CLDR date and time patterns)', () 
     expect(localeFormat('en-GB', { timeZone: 'UTC', withTimeZone: true }).dateTime(at)).toBe('2 Dec 2026, 17:42 UTC');
   });
 
+  it('gives the time of day alone on the same day, and the day too when it was another day', () => {
+    expect(utc('de-DE').sameDayTime(at, '2026-12-02T23:59:00Z')).toBe('17:42');
+    expect(utc('de-DE').sameDayTime(at, '2026-12-03T08:00:00Z')).toBe('2. Dez. 2026, 17:42');
+  });
+
   it('accepts a Date or epoch milliseconds as well as an ISO text', () => {
     expect(utc('de-DE').time(new Date(at))).toBe('17:42');
     expect(utc('de-DE').time(Date.parse(at))).toBe('17:42');

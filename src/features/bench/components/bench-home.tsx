@@ -10,6 +10,7 @@ import { benchQueries } from '../api/queries';
 import type { DiagnosisSummary } from '@shared/schema/bench';
 import { SyncBadge } from './sync-badge';
 import { resumeFromServer } from '../lib/resume';
+import { useFormat } from '../../../lib/format';
 
 /** How many ended diagnoses the list shows at first, and adds per "show more". */
 const PAGE = 10;
@@ -20,9 +21,10 @@ const STATUS: Record<string, { label: string; tone: 'go' | 'signal' | 'edge' | '
 };
 
 function DiagnosisLink({ d }: { d: DiagnosisSummary }) {
+  const fmt = useFormat();
   return (
     <Link to={`/bench/d/${d.id}/record`} className="flex min-h-14 items-center justify-between gap-2 rounded-lg border border-line bg-panel p-3">
-      <span><strong>{d.vehicleLabel}</strong> · {d.procedureTitle}<span className="block text-ink-soft">{new Date(d.startedAt).toLocaleDateString()} · {d.stepsAnswered} {d.stepsAnswered === 1 ? 'step' : 'steps'}</span></span>
+      <span><strong>{d.vehicleLabel}</strong> · {d.procedureTitle}<span className="block text-ink-soft">{fmt.date(d.startedAt)} · {d.stepsAnswered} {d.stepsAnswered === 1 ? 'step' : 'steps'}</span></span>
       <Badge tone={STATUS[d.status]?.tone ?? 'neutral'}>{STATUS[d.status]?.label ?? d.status}</Badge>
     </Link>
   );
@@ -30,13 +32,14 @@ function DiagnosisLink({ d }: { d: DiagnosisSummary }) {
 
 /** Diagnoses in progress on this phone, each one tap from its current step. */
 function ResumeList({ diagnoses }: { diagnoses: LocalDiagnosis[] }) {
+  const fmt = useFormat();
   return (
     <section aria-labelledby="resume" className="space-y-2">
       <h2 id="resume" className="text-xl font-bold">Resume on this phone</h2>
       {diagnoses.length === 0 && <p className="text-ink-soft">Nothing in progress on this phone.</p>}
       {diagnoses.map((d) => (
         <Link key={d.id} to={`/bench/d/${d.id}`} className="flex min-h-16 items-center justify-between gap-2 rounded-lg border-2 border-signal bg-panel p-3 text-lg font-semibold">
-          <span>{d.vehicleLabel} · {d.procedureTitle}<span className="block text-base font-normal text-ink-soft">{d.rows.length} {d.rows.length === 1 ? 'answer' : 'answers'} · started {new Date(d.startedAt).toLocaleString()}</span></span>
+          <span>{d.vehicleLabel} · {d.procedureTitle}<span className="block text-base font-normal text-ink-soft">{d.rows.length} {d.rows.length === 1 ? 'answer' : 'answers'} · started {fmt.sameDayTime(d.startedAt)}</span></span>
           <span aria-hidden>›</span>
         </Link>
       ))}
@@ -44,16 +47,15 @@ function ResumeList({ diagnoses }: { diagnoses: LocalDiagnosis[] }) {
   );
 }
 
-const timeOfDay = (iso: string) => new Date(iso).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit' });
-
 /** One diagnosis on another phone: who, when it was last answered, and the step it waits at. */
 function ElsewhereCard({ d }: { d: DiagnosisSummary }) {
+  const fmt = useFormat();
   return (
     <Link to={`/bench/d/${d.id}/record`} className="block min-h-14 rounded-lg border border-line bg-panel p-3">
       <strong>{d.vehicleLabel}</strong> · {d.procedureTitle}
       <span className="block">Waiting at: <strong>{d.currentStepTitle ?? 'its ending'}</strong></span>
       <span className="block text-ink-soft">
-        {d.technicianName} · started {timeOfDay(d.startedAt)} · last answer {timeOfDay(d.lastActivityAt)} · {d.stepsAnswered} {d.stepsAnswered === 1 ? 'step' : 'steps'}
+        {d.technicianName} · started {fmt.sameDayTime(d.startedAt)} · last answer {fmt.sameDayTime(d.lastActivityAt)} · {d.stepsAnswered} {d.stepsAnswered === 1 ? 'step' : 'steps'}
       </span>
     </Link>
   );

@@ -2,7 +2,6 @@ import { useEffect, useMemo, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { pathFigures } from '@shared/engine/figures';
 import { stepView } from '@shared/engine/step-view';
-import { formatReading } from '@shared/measure/format';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import { remeasuredAt, type PathStep } from '@shared/engine/walk';
 import { Alert, Spinner } from '../../../components/ui/card';
@@ -15,6 +14,7 @@ import { PathList } from './path-list';
 import { progressOf, type Progress } from './progress-line';
 import { PhotoField } from './photo-field';
 import { SyncBadge } from './sync-badge';
+import { useFormat } from '../../../lib/format';
 
 function useSecondsSince(since: number): number {
   const [now, setNow] = useState(() => Date.now());
@@ -55,11 +55,12 @@ function ProgressHeader({ id, title, done, progress, since }: { id: string; titl
 function ComputedCard({ doc, path }: { doc: ProcedureDocument; path: readonly PathStep[] }) {
   const last = [...path].reverse().find((p) => p.outcome !== 'ended');
   const step = last?.kind === 'formula' ? doc.steps.find((s) => s.id === last.stepId) : undefined;
+  const fmt = useFormat();
   if (!step || step.kind !== 'formula' || last?.value === undefined) return null;
   return (
     <div className="rounded-lg border-2 border-notice bg-panel p-3" data-kind="formula" data-testid="computed">
       <p className="text-base font-bold uppercase tracking-wide text-notice">Computed, nothing to measure</p>
-      <p className="text-xl font-bold">{step.title}: {formatReading({ value: last.value, quantity: step.quantity, significantDigits: 3 }, { unit: step.unit })}</p>
+      <p className="text-xl font-bold">{step.title}: {fmt.reading({ value: last.value, quantity: step.quantity, significantDigits: 3 }, { unit: step.unit })}</p>
       <p className="text-base text-ink-soft">{step.instructions}</p>
     </div>
   );

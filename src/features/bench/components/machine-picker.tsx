@@ -4,19 +4,19 @@ import { Button } from '../../../components/ui/button';
 import type { VehicleDto as Vehicle } from '@shared/schema/vehicle';
 import { matchMachines } from '../lib/machines';
 import { QuickVehicle } from './quick-vehicle';
+import { useFormat } from '../../../lib/format';
 
 /** How many matches the list shows at once: a thumb's scroll, not the whole fleet. */
 const SHOWN = 6;
 
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
-
 function MachineOption({ v, checked, onPick }: { v: Vehicle; checked: boolean; onPick(): void }) {
+  const fmt = useFormat();
   return (
     <label className="flex min-h-16 min-w-0 cursor-pointer items-center gap-3 rounded-lg border-2 border-ink/40 bg-paper px-3 py-2 has-[:checked]:border-signal has-[:checked]:bg-signal-soft">
       <input type="radio" name="machine" className="h-6 w-6 shrink-0 accent-signal" value={v.id} checked={checked} onChange={onPick} />
       <span className="min-w-0 text-lg font-semibold">{v.label} <span className="font-normal">{v.model}</span>
         <span className="block break-words text-base font-normal text-ink-soft">
-          {v.frameNumber || 'no frame number'} · {v.lastDiagnosedAt ? `last diagnosed ${day(v.lastDiagnosedAt)}` : 'never diagnosed'}
+          {v.frameNumber || 'no frame number'} · {v.lastDiagnosedAt ? `last diagnosed ${fmt.date(v.lastDiagnosedAt)}` : 'never diagnosed'}
         </span>
       </span>
     </label>

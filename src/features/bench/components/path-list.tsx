@@ -1,20 +1,21 @@
 import { useState } from 'react';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { PathStep } from '@shared/engine/walk';
-import { formatReading } from '@shared/measure/format';
+import type { LocaleFormat } from '@shared/format/locale';
+import { useFormat } from '../../../lib/format';
 
 const VERDICT: Record<string, string> = {
   within: 'within', below: 'below', above: 'above', 'borderline-low': 'borderline', 'borderline-high': 'borderline',
 };
 
-function answerText(doc: ProcedureDocument, p: PathStep): string {
+function answerText(doc: ProcedureDocument, p: PathStep, fmt: LocaleFormat): string {
   const step = doc.steps.find((s) => s.id === p.stepId);
   if (p.kind === 'observation' && step?.kind === 'observation' && p.answer?.kind === 'observation') {
     const id = p.answer.answerId;
     return step.answers.find((a) => a.id === id)?.label ?? id;
   }
   if ((p.kind === 'reading' || p.kind === 'formula') && p.value !== undefined && step && (step.kind === 'reading' || step.kind === 'formula')) {
-    const shown = formatReading({ value: p.value, quantity: step.quantity, significantDigits: 3 });
+    const shown = fmt.reading({ value: p.value, quantity: step.quantity, significantDigits: 3 });
     const typed = p.reading ? `${p.reading.text} → ` : 'computed: ';
     return `${typed}${shown}${p.decision?.verdict ? ` (${VERDICT[p.decision.verdict]})` : ''}`;
   }
@@ -27,6 +28,7 @@ function answerText(doc: ProcedureDocument, p: PathStep): string {
  */
 export function PathList({ doc, path, closed, onChange }: { doc: ProcedureDocument; path: readonly PathStep[]; closed: boolean; onChange(index: number): void }) {
   const [choosing, setChoosing] = useState(false);
+  const fmt = useFormat();
   const shown = path.filter((p) => p.outcome !== 'ended');
   if (!shown.length) return null;
   const changeable = !closed && shown.some((p) => p.entryIndex !== null);
@@ -39,7 +41,7 @@ export function PathList({ doc, path, closed, onChange }: { doc: ProcedureDocume
           return (
             <li key={i} className="flex items-center gap-3 rounded-lg border border-line bg-panel p-2">
               <span className="flex h-8 w-8 shrink-0 items-center justify-center rounded-full bg-ink text-base font-bold text-white">{i + 1}</span>
-              <span className="min-w-0 flex-1"><span className="block font-semibold">{title}</span><span className="block text-ink-soft">{answerText(doc, p)}</span></span>
+              <span className="min-w-0 flex-1"><span className="block font-semibold">{title}</span><span className="block text-ink-soft">{answerText(doc, p, fmt)}</span></span>
               {choosing && changeable && p.entryIndex !== null && (
                 <button type="button" onClick={() => { setChoosing(false); onChange(i); }} className="min-h-12 min-w-20 rounded-lg border-2 border-ink px-3 font-semibold" aria-label={`Change ${title}`}>Change</button>
               )}

@@ -2,7 +2,7 @@ import { useId, useRef, useState } from 'react';
 import type { ReadingStep } from '@shared/schema/procedure';
 import type { ReadingDecision } from '@shared/measure/verdict';
 import { decideEntered } from '@shared/engine/reading-entry';
-import { formatReading } from '@shared/measure/format';
+import { useFormat } from '../../../lib/format';
 import type { FormulaValue } from '@shared/measure/formula';
 import { VerdictPanel } from './verdict-panel';
 
@@ -29,6 +29,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
   step: ReadingStep; values: Readonly<Record<string, FormulaValue>>; remeasured: number; disabled: boolean; onChange(v: ReadingValue): void;
 }) {
   const id = useId();
+  const fmt = useFormat();
   const [text, setText] = useState('');
   const [lead, setLead] = useState('');
   const [letters, setLetters] = useState(false);
@@ -55,7 +56,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
       </button>
       <div id={`${id}-feedback`} aria-live="polite">
         {p?.readingError && <p className="rounded-lg bg-stop-soft p-3 text-lg text-ink"><strong className="text-stop">Not understood.</strong> {p.readingError.message} {p.readingError.suggestion}</p>}
-        {p?.reading && <p className="text-lg">Understood as <strong data-testid="understood">{p.reading.understood}</strong></p>}
+        {p?.reading && <p className="text-lg">Understood as <strong data-testid="understood">{fmt.decimals(p.reading.understood)}</strong></p>}
       </div>
       {step.leadNull && (
         <div>
@@ -67,7 +68,7 @@ export function ReadingField({ step, values, remeasured, disabled, onChange }: {
       )}
       {step.winding && (
         <p className="text-base text-ink-soft">
-          {temp ? `Corrected to ${step.winding.referenceTemperature} °C from the engine temperature ${formatReading({ value: temp.value, quantity: 'temperature' })} (copper winding).`
+          {temp ? `Corrected to ${step.winding.referenceTemperature} °C from the engine temperature ${fmt.reading({ value: temp.value, quantity: 'temperature' })} (copper winding).`
             : 'This reading is corrected for engine temperature, but no temperature was measured on this path.'}
         </p>
       )}

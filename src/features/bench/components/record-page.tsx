@@ -1,8 +1,9 @@
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { formatReading } from '@shared/measure/format';
 import type { Quantity } from '@shared/measure/quantities';
+import type { LocaleFormat } from '@shared/format/locale';
+import { useFormat } from '../../../lib/format';
 import { api, ApiError } from '../../../lib/api-client';
 import { PageHeader, Alert, Spinner, Badge } from '../../../components/ui/card';
 import { Button } from '../../../components/ui/button';
@@ -16,40 +17,42 @@ const VERDICT: Record<string, [string, 'go' | 'stop' | 'edge']> = {
   'borderline-low': ['borderline', 'edge'], 'borderline-high': ['borderline', 'edge'],
 };
 
-function parsed(s: RecordStep): string {
+function parsed(s: RecordStep, fmt: LocaleFormat): string {
   if (s.value === null || !s.shown.quantity) return '';
-  return formatReading({ value: s.value, quantity: s.shown.quantity as Quantity, significantDigits: 3 }, s.shown.unit ? { unit: s.shown.unit } : {});
+  return fmt.reading({ value: s.value, quantity: s.shown.quantity as Quantity, significantDigits: 3 }, s.shown.unit ? { unit: s.shown.unit } : {});
 }
 
-function corrections(s: RecordStep): string {
+function corrections(s: RecordStep, fmt: LocaleFormat): string {
   const c = s.shown.corrections ?? {};
   const out: string[] = [];
   if (s.shown.leadEntered) out.push(`test leads ${s.shown.leadEntered} subtracted`);
-  if (c.temperatureFactor !== undefined) out.push(`corrected to 20 °C (×${c.temperatureFactor.toFixed(4)})`);
+  if (c.temperatureFactor !== undefined) out.push(`corrected to 20 °C (×${fmt.fixed(c.temperatureFactor, 4)})`);
   return out.join('; ');
 }
 
-function answer(s: RecordStep): string {
-  if (s.entered) return `${s.entered} → ${parsed(s)}`;
+function answer(s: RecordStep, fmt: LocaleFormat): string {
+  if (s.entered) return `${s.entered} → ${parsed(s, fmt)}`;
   if (s.answerId) return s.shown.answers?.find((a) => a.id === s.answerId)?.label ?? s.answerId;
-  if (s.kind === 'formula') return `computed ${parsed(s)}`;
+  if (s.kind === 'formula') return `computed ${parsed(s, fmt)}`;
   return s.kind === 'task' ? 'done' : '';
 }
 
 const yesNo = (b: boolean) => (b ? 'yes' : 'no');
 
 function TimelineStep({ s, attachments }: { s: RecordStep; attachments: DiagnosisRecord['attachments'] }) {
+  const fmt = useFormat();
+  const fixes = corrections(s, fmt);
   return (
     <li className={`rounded-lg border border-line p-3 break-inside-avoid ${s.superseded ? 'border-dashed bg-paper' : 'bg-panel'}`}>
       <div className="flex flex-wrap items-center gap-2">
         <span className="font-bold">{s.seq}. {s.shown.title ?? s.stepId}</span>
         {s.verdict && <Badge tone={VERDICT[s.verdict]?.[1] ?? 'edge'}>{VERDICT[s.verdict]?.[0]}</Badge>}
         {s.superseded && <Badge>changed later</Badge>}
-        <span className="ml-auto text-sm text-ink-soft">{new Date(s.answeredAt).toLocaleTimeString()}</span>
+        <span className="ml-auto text-sm text-ink-soft">{fmt.timeWithSeconds(s.answeredAt)}</span>
       </div>
-      <p className="text-lg">{answer(s)}{s.shown.limitsText ? <span className="text-ink-soft"> · limits {s.shown.limitsText}</span> : null}</p>
-      {corrections(s) && <p className="text-ink-soft">{corrections(s)}</p>}
-      {s.shown.acknowledged && <p className="font-semibold" data-testid="record-acknowledged">DANGER note acknowledged{s.shown.acknowledgedAt ? ` at ${new Date(s.shown.acknowledgedAt).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}` : ''}</p>}
+      <p className="text-lg" data-testid="record-answer">{answer(s, fmt)}{s.shown.limitsText ? <span className="text-ink-soft"> · limits {fmt.decimals(s.shown.limitsText)}</span> : null}</p>
+      {fixes && <p className="text-ink-soft">{fixes}</p>}
+      {s.shown.acknowledged && <p className="font-semibold" data-testid="record-acknowledged">DANGER note acknowledged{s.shown.acknowledgedAt ? ` at ${fmt.time(s.shown.acknowledgedAt)}` : ''}</p>}
       {s.shown.cause && <p><strong>Cause:</strong> {s.shown.cause} <strong>Repair:</strong> {s.shown.repair}</p>}
       {s.note && <p className="text-ink-soft">Note: {s.note}</p>}
       {attachments.filter((a) => a.stepId === s.stepId && !s.superseded).map((a) => <img key={a.id} src={`/api/attachments/${a.id}/thumb`} alt={`Photo ${a.originalName}`} className="mt-2 inline-block h-24 w-24 rounded border border-line object-cover" />)}
@@ -82,6 +85,7 @@ function CoachingNotes({ notes }: { notes: DiagnosisRecord['coachingNotes'] }) {
 /** The complete record as a printable timeline, with the e-mail report and coaching notes. */
 export function RecordPage() {
   const { id = '' } = useParams();
+  const fmt = useFormat();
   const record = useQuery(benchQueries.record(id));
   const [sent, setSent] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -94,7 +98,7 @@ export function RecordPage() {
   };
   return (
     <div className="mx-auto max-w-3xl space-y-4 pb-16">
-      <PageHeader title={`${r.vehicleLabel} · ${r.procedureTitle}`} subtitle={`Version ${r.versionNumber} · ${r.technicianName} · started ${new Date(r.startedAt).toLocaleString()}`} actions={<span className="no-print"><SyncBadge /></span>} />
+      <PageHeader title={`${r.vehicleLabel} · ${r.procedureTitle}`} subtitle={`Version ${r.versionNumber} · ${r.technicianName} · started ${fmt.dateTime(r.startedAt)}`} actions={<span className="no-print"><SyncBadge /></span>} />
       <p className="text-lg"><strong>Complaint:</strong> {r.complaint}</p>
       <ol className="space-y-2" aria-label="Timeline">
         {r.steps.map((s) => <TimelineStep key={s.id} s={s} attachments={r.attachments} />)}

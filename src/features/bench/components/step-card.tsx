@@ -5,17 +5,16 @@ import type { FormulaValue } from '@shared/measure/formula';
 import { SafetyNote, LimitsNotice, saysServiceDataFirst } from '../../../components/ui/safety';
 import { ReadingField, type ReadingValue } from './reading-field';
 import type { Answer } from '../hooks/use-local-diagnosis';
+import { useFormat } from '../../../lib/format';
 
 const big = 'w-full min-h-16 rounded-xl px-5 text-xl font-bold text-left disabled:opacity-40';
 
-/** "10:42": the time of day of an ISO time, as the phone shows times. */
-export const timeOfDay = (iso: string) => new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
-
 /** The mark a DANGER note keeps once acknowledged, so the step shows it was read and when. */
 function AcknowledgedMark({ at }: { at: string }) {
+  const fmt = useFormat();
   return (
     <p data-testid="acknowledged-mark" className="flex min-h-12 items-center gap-2 rounded-lg border-2 border-danger bg-paper px-3 text-lg font-bold text-ink">
-      <span aria-hidden className="text-2xl leading-none text-danger">✓</span>Acknowledged at {timeOfDay(at)}
+      <span aria-hidden className="text-2xl leading-none text-danger">✓</span>Acknowledged at {fmt.time(at)}
     </p>
   );
 }
@@ -37,10 +36,11 @@ export function SafetyBlock({ view, acknowledgedAt, onAcknowledge, locks = true 
 }
 
 export function LimitsBox({ view }: { view: StepView }) {
+  const fmt = useFormat();
   if (!view.limits) return null;
   return (
     <div className="rounded-lg border-2 border-ink/20 bg-panel p-3" data-testid="limits-box">
-      <p className="text-lg">Limits: <strong className="text-xl">{view.limits.text}</strong></p>
+      <p className="text-lg">Limits: <strong className="text-xl">{fmt.decimals(view.limits.text)}</strong></p>
       {/* The service-data sentence once: the procedure's own note when it says it, else ours. */}
       {view.limitsNote && <p className="text-base text-ink-soft" data-testid="limits-note">{view.limitsNote}</p>}
       {!saysServiceDataFirst(view.limitsNote) && <LimitsNotice className="text-base" />}

@@ -1,6 +1,6 @@
 import type { ReadingStep } from '@shared/schema/procedure';
 import { limitCrossedBy, type ReadingDecision, type Verdict } from '@shared/measure/verdict';
-import { formatLimit, formatReading } from '@shared/measure/format';
+import { useFormat } from '../../../lib/format';
 import { cx } from '../../../components/ui/cx';
 
 const WORDS: Record<Verdict, { label: string; tone: string }> = {
@@ -13,7 +13,8 @@ const WORDS: Record<Verdict, { label: string; tone: string }> = {
 
 /** The verdict as soon as the value is valid, with the meter's uncertainty interval. */
 export function VerdictPanel({ step, decision, onRemeasure }: { step: ReadingStep; decision: ReadingDecision; onRemeasure(): void }) {
-  const f = (v: number) => formatReading({ value: v, quantity: step.quantity, significantDigits: 3 });
+  const fmt = useFormat();
+  const f = (v: number) => fmt.reading({ value: v, quantity: step.quantity, significantDigits: 3 });
   const v = decision.verdict ? WORDS[decision.verdict] : null;
   const borderline = decision.verdict === 'borderline-low' || decision.verdict === 'borderline-high';
   const crossed = limitCrossedBy(decision);
@@ -27,7 +28,7 @@ export function VerdictPanel({ step, decision, onRemeasure }: { step: ReadingSte
       {crossed !== null && (
         <div data-testid="crosses-limit" className="mt-2 rounded-lg border-2 border-edge bg-panel p-2">
           <p className="text-lg font-semibold text-ink">
-            The meter's uncertainty reaches past the {formatLimit(crossed, step.quantity, step.unit)} limit; this step decides by the reading itself (simple acceptance), so it stands. Measure again if in doubt.
+            The meter's uncertainty reaches past the {fmt.limit(crossed, step.quantity, step.unit)} limit; this step decides by the reading itself (simple acceptance), so it stands. Measure again if in doubt.
           </p>
           <button type="button" onClick={onRemeasure} className="mt-2 min-h-12 w-full rounded-lg border-2 border-ink bg-paper px-3 text-lg font-bold">Measure again</button>
         </div>
