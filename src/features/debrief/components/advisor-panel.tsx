@@ -8,22 +8,24 @@ import { ApiError } from '../../../lib/api-client';
 import { useSession } from '../../../lib/session';
 import { debriefQueries } from '../api/queries';
 import { useDraftFromAdvice } from '../api/mutations';
-import { formatDuration, percent } from '../lib/format';
+import { formatDuration } from '../lib/format';
+import { useDebriefFormat } from '../hooks/use-debrief-format';
 import { adviceSummary, byTimeToWin } from '../lib/advice';
 import { FigureTableView } from './chart-card';
 
 function ChainCard({ chain, doc, versionId, canDraft }: { chain: AdvisorChain; doc: ProcedureDocument; versionId: string; canDraft: boolean }) {
   const draft = useDraftFromAdvice();
+  const df = useDebriefFormat();
   const title = (id: string) => doc.steps.find((s) => s.id === id)?.title ?? id;
   const saving = chain.currentSeconds - chain.proposedSeconds;
-  const rows = (list: AdvisorChain['current']) => list.map((c, i) => [i + 1, title(c.stepId), percent(c.revealShare, 1), formatDuration(c.seconds) + (c.secondsFrom === 'estimate' ? ' (estimate)' : ''),
-    c.seconds > 0 ? (c.revealShare / (c.seconds / 60)).toFixed(3) : '–']);
+  const rows = (list: AdvisorChain['current']) => list.map((c, i) => [i + 1, title(c.stepId), df.percent(c.revealShare, 1), formatDuration(c.seconds) + (c.secondsFrom === 'estimate' ? ' (estimate)' : ''),
+    c.seconds > 0 ? df.fixed(c.revealShare / (c.seconds / 60), 3) : '–']);
   const header = ['#', 'Check', 'Reveals the fault', 'Median time', 'Chance per minute'];
   const err = draft.error instanceof ApiError ? draft.error : null;
   return (
     <Card className="flex flex-col gap-3">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
-        <h3 className="text-lg">Chain of {chain.checks.length} checks, entered by {chain.entered.toLocaleString()} diagnoses</h3>
+        <h3 className="text-lg">Chain of {chain.checks.length} checks, entered by {df.count(chain.entered)} diagnoses</h3>
         {chain.changes ? <Badge tone="signal">Saves {formatDuration(saving)} per diagnosis on average</Badge> : <Badge tone="go">Already in the best order</Badge>}
       </div>
       <p className="text-ink-soft">

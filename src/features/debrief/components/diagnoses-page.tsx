@@ -12,14 +12,21 @@ import { SortingHead, StripedBody } from '../../../components/ui/data-table';
 import { debriefQueries, diagnosesCsvUrl } from '../api/queries';
 import { useDiagnosisFilters } from '../hooks/use-diagnosis-filters';
 import { DiagnosisFilters } from './diagnosis-filters';
-import { dateTime, formatDuration, STATUS_LABEL, STATUS_TONE } from '../lib/format';
+import { formatDuration, STATUS_LABEL, STATUS_TONE } from '../lib/format';
+import { useDebriefFormat } from '../hooks/use-debrief-format';
+
+/** The start of a diagnosis in the shop's locale, linking to its replay. */
+function StartedLink({ row }: { row: DiagnosisRow }) {
+  const df = useDebriefFormat();
+  return <Link className="font-semibold text-ink underline underline-offset-4 hover:text-signal" to={`diagnoses/${row.id}`}>{df.dateTime(row.startedAt)}</Link>;
+}
 
 const features = tableFeatures({ rowSortingFeature, rowPaginationFeature });
 type Columns = ColumnDef<typeof features, DiagnosisRow>[];
 
 const columns: Columns = [
   { id: 'startedAt', header: 'Started', accessorFn: (r) => r.startedAt,
-    cell: ({ row }) => <Link className="font-semibold text-ink underline underline-offset-4 hover:text-signal" to={`diagnoses/${row.original.id}`}>{dateTime(row.original.startedAt)}</Link> },
+    cell: ({ row }) => <StartedLink row={row.original} /> },
   { id: 'procedure', header: 'Procedure', accessorFn: (r) => r.procedureTitle,
     cell: ({ row }) => <span>{row.original.procedureTitle} <span className="text-ink-soft">v{row.original.versionNumber}</span></span> },
   { id: 'vehicle', header: 'Vehicle', accessorFn: (r) => r.vehicleLabel,
@@ -84,9 +91,10 @@ function DiagnosisTableView({ table, total, fetching }: { table: DiagnosisTable;
 }
 
 function Pager({ table, total, page, pages }: { table: DiagnosisTable; total: number | undefined; page: number; pages: number }) {
+  const df = useDebriefFormat();
   return (
     <nav className="mt-3 flex flex-wrap items-center justify-between gap-2" aria-label="Pages">
-      <p className="text-ink-soft">{total !== undefined ? `${total.toLocaleString()} diagnoses · page ${page} of ${pages}` : ''}</p>
+      <p className="text-ink-soft">{total !== undefined ? `${df.count(total)} diagnoses · page ${page} of ${pages}` : ''}</p>
       <div className="flex gap-2">
         <Button variant="secondary" disabled={page <= 1} onClick={() => table.previousPage()}>Previous</Button>
         <Button variant="secondary" disabled={page >= pages} onClick={() => table.nextPage()}>Next</Button>

@@ -4,7 +4,7 @@ import type { ProcedureDocument } from '@shared/schema';
 import type { AnalyticsQuery, ReadingFigure } from '@shared/stats/debrief-schema';
 import { Alert, EmptyState, Spinner } from '../../../components/ui/card';
 import { debriefQueries } from '../api/queries';
-import { formatValue, percent } from '../lib/format';
+import { useDebriefFormat } from '../hooks/use-debrief-format';
 import { ChartCard } from './chart-card';
 import { palette } from '../lib/palette';
 
@@ -19,15 +19,16 @@ function binColour(bin: { lo: number; hi: number }, limits: ReadingFigure['limit
 }
 
 function ReadingCard({ r, title }: { r: ReadingFigure; title: string }) {
-  const fmt = (v: number | null) => formatValue(v, r.quantity, r.unit);
+  const df = useDebriefFormat();
+  const fmt = (v: number | null) => df.value(v, r.quantity, r.unit);
   const bins = r.bins.map((b) => ({ ...b, label: `${fmt(b.lo)} – ${fmt(b.hi)}` }));
   const limitText = [r.limits.min !== undefined ? `min ${fmt(r.limits.min)}` : null, r.limits.max !== undefined ? `max ${fmt(r.limits.max)}` : null].filter(Boolean).join(', ');
   return (
     <ChartCard title={title} csvName={`readings-${r.stepId}`}
-      question={`${r.n.toLocaleString()} readings against the limits (${limitText || 'none set'}); ${percent(r.borderlineShare, 1)} borderline verdicts.`}
+      question={`${df.count(r.n)} readings against the limits (${limitText || 'none set'}); ${df.percent(r.borderlineShare, 1)} borderline verdicts.`}
       table={{
         header: ['Technician', 'Readings', 'Q1', 'Median', 'Q3', 'Borderline'],
-        rows: r.byTechnician.map((t) => [t.technicianName, t.n, fmt(t.q1), fmt(t.median), fmt(t.q3), `${t.borderline} (${percent(t.n ? t.borderline / t.n : null)})`]),
+        rows: r.byTechnician.map((t) => [t.technicianName, t.n, fmt(t.q1), fmt(t.median), fmt(t.q3), `${t.borderline} (${df.percent(t.n ? t.borderline / t.n : null)})`]),
       }}
       chart={
         <div className="flex flex-col gap-3">
@@ -51,7 +52,7 @@ function ReadingCard({ r, title }: { r: ReadingFigure; title: string }) {
               {r.byTechnician.map((t) => (
                 <tr key={t.technicianId} className="border-t border-line tabular-nums">
                   <td>{t.technicianName}</td><td>{t.n}</td><td>{fmt(t.q1)}</td><td className="font-semibold">{fmt(t.median)}</td><td>{fmt(t.q3)}</td>
-                  <td>{percent(t.n ? t.borderline / t.n : null)}</td>
+                  <td>{df.percent(t.n ? t.borderline / t.n : null)}</td>
                 </tr>
               ))}
             </tbody>

@@ -4,7 +4,8 @@ import { useQuery } from '@tanstack/react-query';
 import { Alert, Badge, Card, PageHeader, Spinner } from '../../../components/ui/card';
 import { debriefQueries } from '../api/queries';
 import { pathGraph } from '../lib/graph';
-import { dateTime, formatDuration, STATUS_LABEL, STATUS_TONE } from '../lib/format';
+import { formatDuration, STATUS_LABEL, STATUS_TONE } from '../lib/format';
+import { useDebriefFormat } from '../hooks/use-debrief-format';
 import { ReplayTimeline, NoteLine } from './replay-timeline';
 import { CoachingForm } from './coaching-form';
 
@@ -14,6 +15,7 @@ const ProcedureGraph = lazy(() => import('./procedure-graph'));
 export function ReplayPage() {
   const { id = '' } = useParams();
   const { data, isLoading, error } = useQuery(debriefQueries.diagnosis(id));
+  const df = useDebriefFormat();
   const [selected, setSelected] = useState<string | null>(null);
   const graph = useMemo(() => (data ? pathGraph(data.document, data.path, selected) : null), [data, selected]);
   if (isLoading) return <Spinner label="Loading the diagnosis" />;
@@ -24,7 +26,7 @@ export function ReplayPage() {
     <>
       <p className="mb-2"><Link to="/debrief" className="text-ink-soft underline underline-offset-4 hover:text-ink">← All diagnoses</Link></p>
       <PageHeader title={`${d.vehicleLabel}: ${d.procedureTitle}`}
-        subtitle={<span>{d.vehicleModel} · v{d.versionNumber} · {d.technicianName} · started {dateTime(d.startedAt)} · {formatDuration(d.durationSeconds)}</span>}
+        subtitle={<span>{d.vehicleModel} · v{d.versionNumber} · {d.technicianName} · started {df.dateTime(d.startedAt)} · {formatDuration(d.durationSeconds)}</span>}
         actions={<Badge tone={STATUS_TONE[d.status]}>{STATUS_LABEL[d.status]}</Badge>} />
       <div className="mb-4 flex flex-wrap gap-2">
         {d.flags.borderline && <Badge tone="edge">Borderline verdict on the way</Badge>}

@@ -2,7 +2,9 @@ import { Badge } from '../../../components/ui/card';
 import { cx } from '../../../components/ui/cx';
 import type { ProcedureDocument } from '@shared/schema';
 import type { CoachingNote, Replay, ReplayStep } from '../api/types';
-import { dateTime, formatDuration, formatValue } from '../lib/format';
+import { formatDuration, type DebriefFormat } from '../lib/format';
+import { useDebriefFormat } from '../hooks/use-debrief-format';
+import { useFormat } from '../../../lib/format';
 
 const VERDICT: Record<string, { label: string; tone: 'go' | 'stop' | 'edge' }> = {
   within: { label: 'Within limits', tone: 'go' },
@@ -23,17 +25,19 @@ function answerLabel(doc: ProcedureDocument, s: ReplayStep): string | null {
 }
 
 /** "value ± U" as the interval the verdict used (meter uncertainty), when the step recorded one. */
-function intervalText(s: ReplayStep): string | null {
+function intervalText(s: ReplayStep, df: DebriefFormat): string | null {
   const i = s.shown.interval;
   if (!i) return null;
   const q = s.shown.quantity ?? null;
   const unit = s.shown.unit ?? null;
-  return `${formatValue(i.low, q, unit)} to ${formatValue(i.high, q, unit)}`;
+  return `${df.value(i.low, q, unit)} to ${df.value(i.high, q, unit)}`;
 }
 
 /** The steps in the order they were answered, superseded answers struck through, with notes. */
 export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay; selected: string | null; onSelect: (id: string) => void }) {
   const notesOn = (id: string | null): CoachingNote[] => replay.notes.filter((n) => n.stepId === id);
+  const df = useDebriefFormat();
+  const fmt = useFormat();
   return (
     <ol className="flex flex-col gap-2" aria-label="Timeline of steps">
       {replay.steps.map((s) => {
@@ -52,8 +56,8 @@ export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay;
               {verdict && <Badge tone={verdict.tone}>{verdict.label}</Badge>}
               {answer && <span className="text-ink-soft">→ {answer}</span>}
               {s.superseded && <Badge tone="neutral">Taken back, answered again</Badge>}
-              {s.shown.limitsText && <span className="text-ink-soft">Limits shown: {s.shown.limitsText}</span>}
-              {intervalText(s) && <span className="text-ink-soft">Interval with the meter's uncertainty: {intervalText(s)}</span>}
+              {s.shown.limitsText && <span className="text-ink-soft">Limits shown: {fmt.decimals(s.shown.limitsText)}</span>}
+              {intervalText(s, df) && <span className="text-ink-soft">Interval with the meter's uncertainty: {intervalText(s, df)}</span>}
               {s.shown.leadEntered && <span className="text-ink-soft">Test leads nulled at {s.shown.leadEntered}</span>}
             </div>
             {s.shown.question && <p className="mt-1 text-sm text-ink-soft">Asked: {s.shown.question}</p>}
@@ -74,7 +78,7 @@ export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay;
       {replay.diagnosis.endingTitle && (
         <li className="rounded-lg border-2 border-ink/70 bg-paper p-3">
           <p className="font-semibold">Ended: {replay.diagnosis.endingTitle}</p>
-          <p className="text-sm text-ink-soft">{dateTime(replay.diagnosis.endedAt)}</p>
+          <p className="text-sm text-ink-soft">{df.dateTime(replay.diagnosis.endedAt)}</p>
         </li>
       )}
     </ol>
@@ -82,10 +86,11 @@ export function ReplayTimeline({ replay, selected, onSelect }: { replay: Replay;
 }
 
 export function NoteLine({ note }: { note: CoachingNote }) {
+  const df = useDebriefFormat();
   return (
     <blockquote className="mt-2 border-l-4 border-signal bg-signal-soft/60 px-3 py-2 text-sm">
       <p>{note.body}</p>
-      <footer className="text-ink-soft">{note.authorName}, {dateTime(note.createdAt)}</footer>
+      <footer className="text-ink-soft">{note.authorName}, {df.dateTime(note.createdAt)}</footer>
     </blockquote>
   );
 }

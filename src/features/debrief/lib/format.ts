@@ -1,5 +1,5 @@
 import type { DiagnosisStatus } from '@shared/stats/debrief-schema';
-import { formatReading } from '@shared/measure/format';
+import type { LocaleFormat } from '@shared/format/locale';
 import type { Quantity } from '@shared/measure/quantities';
 
 export const STATUS_LABEL: Record<DiagnosisStatus, string> = {
@@ -18,21 +18,34 @@ export function formatDuration(seconds: number | null | undefined): string {
   return `${Math.floor(s / 3600)} h ${String(Math.floor((s % 3600) / 60)).padStart(2, '0')} min`;
 }
 
-export const minutes = (seconds: number | null | undefined) => (seconds === null || seconds === undefined ? '–' : (seconds / 60).toFixed(1));
-
-export function percent(share: number | null | undefined, digits = 0): string {
-  return share === null || share === undefined || !Number.isFinite(share) ? '–' : `${(share * 100).toFixed(digits)} %`;
+/** Debrief's figures in the shop's locale; `useDebriefFormat()` gives the one for the session. */
+export interface DebriefFormat {
+  count(n: number): string;
+  fixed(n: number, digits: number): string;
+  percent(share: number | null | undefined, digits?: number): string;
+  /** Seconds as minutes with one decimal: 90 → "1.5" (or "1,5"). */
+  minutes(seconds: number | null | undefined): string;
+  /** A reading of a quantity in a display unit, "–" when there is none. */
+  value(value: number | null | undefined, quantity: string | null, unit?: string | null): string;
+  dateTime(iso: string | null): string;
 }
 
-export function formatValue(value: number | null | undefined, quantity: string | null, unit?: string | null): string {
-  if (value === null || value === undefined || !Number.isFinite(value)) return '–';
-  if (!quantity) return String(Number(value.toPrecision(3)));
-  try {
-    return formatReading({ value, quantity: quantity as Quantity }, unit ? { unit } : {});
-  } catch {
-    return String(Number(value.toPrecision(3)));
-  }
+export function debriefFormat(fmt: LocaleFormat): DebriefFormat {
+  const plain = (v: number) => fmt.decimals(String(Number(v.toPrecision(3))));
+  return {
+    count: fmt.count,
+    fixed: fmt.fixed,
+    percent: fmt.percent,
+    minutes: (seconds) => (seconds === null || seconds === undefined || !Number.isFinite(seconds) ? '–' : fmt.fixed(seconds / 60, 1)),
+    value(value, quantity, unit) {
+      if (value === null || value === undefined || !Number.isFinite(value)) return '–';
+      if (!quantity) return plain(value);
+      try {
+        return fmt.reading({ value, quantity: quantity as Quantity }, unit ? { unit } : {});
+      } catch {
+        return plain(value);
+      }
+    },
+    dateTime: (iso) => (iso ? fmt.dateTime(iso) : '–'),
+  };
 }
-
-export const dateTime = (iso: string | null) =>
-  iso ? new Date(iso).toLocaleString(undefined, { year: 'numeric', month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit' }) : '–';

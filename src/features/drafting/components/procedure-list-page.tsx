@@ -11,14 +11,11 @@ import type { ListFilter, ProcedureRow } from '../api/types';
 import { CreateProcedureForm } from './create-procedure-form';
 import { ImportButton } from './import-button';
 import { IGNITION_LABELS, StatusBadge } from './labels';
+import { useFormat } from '../../../lib/format';
 
 function openLink(p: ProcedureRow): string | null {
   const id = p.draft?.id ?? p.published?.id;
   return id ? `/drafting/${p.id}/versions/${id}` : null;
-}
-
-function when(iso: string): string {
-  return new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 }
 
 function Row({ p, canAuthor, canArchive }: { p: ProcedureRow; canAuthor: boolean; canArchive: boolean }) {
@@ -28,6 +25,7 @@ function Row({ p, canAuthor, canArchive }: { p: ProcedureRow; canAuthor: boolean
   const dup = useMutation({ mutationFn: () => duplicateProcedure(p.id), onSuccess: (c) => { void refresh(); navigate(`/drafting/${c.procedureId}/versions/${c.draftId}`); } });
   const arch = useMutation({ mutationFn: () => archiveProcedure(p.id, !p.archived), onSuccess: refresh });
   const link = openLink(p);
+  const fmt = useFormat();
   return (
     <tr className="border-t border-line align-top">
       <td className="px-3 py-2">
@@ -37,9 +35,9 @@ function Row({ p, canAuthor, canArchive }: { p: ProcedureRow; canAuthor: boolean
       <td className="px-3 py-2">{p.symptom}</td>
       <td className="px-3 py-2">{IGNITION_LABELS[p.ignitionSystem] ?? p.ignitionSystem}</td>
       <td className="px-3 py-2">{p.draft ? <StatusBadge status={p.draft.status} /> : <span className="text-ink-soft">none</span>}</td>
-      <td className="px-3 py-2">{p.published ? <Badge tone="go">v{p.published.number}</Badge> : <span className="text-ink-soft">not yet</span>}</td>
-      <td className="px-3 py-2 text-sm">{p.lastEditedBy ?? '—'}<div className="text-ink-soft">{when(p.lastEditedAt)}</div></td>
-      <td className="px-3 py-2 text-right tabular-nums">{p.diagnoses}</td>
+      <td className="px-3 py-2">{p.published ? <><Badge tone="go">v{p.published.number}</Badge>{p.published.publishedAt && <div className="text-sm text-ink-soft">{fmt.date(p.published.publishedAt)}</div>}</> : <span className="text-ink-soft">not yet</span>}</td>
+      <td className="px-3 py-2 text-sm">{p.lastEditedBy ?? '—'}<div className="text-ink-soft">{fmt.dateTime(p.lastEditedAt)}</div></td>
+      <td className="px-3 py-2 text-right tabular-nums">{fmt.count(p.diagnoses)}</td>
       <td className="px-3 py-2">
         <div className="flex flex-wrap justify-end gap-2">
           {canAuthor && <Button variant="secondary" busy={dup.isPending} onClick={() => dup.mutate()} aria-label={`Duplicate ${p.title}`}>Duplicate</Button>}

@@ -8,6 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { shopKeys, shopQueries, type MemberRow } from '../api/queries';
 import { RolePicker, ROLE_LABELS } from './role-picker';
 import { InviteForm } from './invite-form';
+import { useFormat } from '../../../lib/format';
 
 function RolesCell({ member }: { member: MemberRow }) {
   const qc = useQueryClient();
@@ -57,13 +58,14 @@ function AccessCell({ member }: { member: MemberRow }) {
 export function MembersPage() {
   const members = useQuery(shopQueries.members());
   const invitations = useQuery(shopQueries.invitations());
+  const fmt = useFormat();
   const columns = useMemo<TableColumns<MemberRow>>(() => [
     { accessorKey: 'name', header: 'Name' },
     { accessorKey: 'email', header: 'E-mail' },
     { id: 'roles', accessorFn: (m) => m.roles.join(' '), header: 'Roles', cell: (info) => <RolesCell member={info.row.original} /> },
-    { accessorKey: 'since', header: 'Member since', cell: (info) => new Date(info.getValue() as string).toLocaleDateString() },
+    { accessorKey: 'since', header: 'Member since', cell: (info) => fmt.date(info.getValue() as string) },
     { id: 'access', accessorFn: (m) => (m.disabled ? 'disabled' : 'active'), header: 'Access', cell: (info) => <AccessCell member={info.row.original} /> },
-  ], []);
+  ], [fmt]);
   return (
     <div className="grid gap-6 xl:grid-cols-[1fr_380px]">
       <section>
@@ -85,6 +87,7 @@ export function MembersPage() {
                 <li key={i.id} className="py-2">
                   <p className="font-semibold">{i.email}</p>
                   <p className="text-sm text-ink-soft">{i.roles.map((r) => ROLE_LABELS[r]).join(', ')} · <Badge tone={i.state === 'open' ? 'signal' : i.state === 'accepted' ? 'go' : 'neutral'}>{i.state}</Badge></p>
+                  <p className="text-sm text-ink-soft">Sent {fmt.date(i.createdAt)}{i.state === 'open' ? ` · open until ${fmt.dateTime(i.expiresAt)}` : ''}</p>
                 </li>
               ))}
             </ul>

@@ -1,8 +1,9 @@
 import type { PathFigures } from '@shared/engine';
-
-const fmt = (n: number) => (Number.isInteger(n) ? String(n) : n.toFixed(1));
+import { useFormat } from '../../../../lib/format';
 
 function Figure({ label, steps, minutes }: { label: string; steps: number | null; minutes: number | null }) {
+  const f = useFormat();
+  const fmt = (n: number) => (Number.isInteger(n) ? f.count(n) : f.fixed(n, 1));
   return (
     <div className="flex items-baseline justify-between gap-2 border-b border-line py-1 last:border-0">
       <dt className="text-ink-soft">{label}</dt>

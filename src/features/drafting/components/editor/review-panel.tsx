@@ -6,6 +6,7 @@ import { Alert } from '../../../../components/ui/card';
 import { draftingKeys, draftingQueries } from '../../api/queries';
 import { addComment, type VersionIds } from '../../api/versions';
 import type { DocumentDiff } from '../../lib/diff';
+import { useFormat } from '../../../../lib/format';
 
 function DiffList({ diff, baseNumber, onPick, onShowRemoved }: { diff: DocumentDiff; baseNumber: number; onPick: (id: string) => void; onShowRemoved: (id: string) => void }) {
   const empty = diff.added.length + diff.removed.length + diff.changed.length + diff.meta.length === 0;
@@ -36,6 +37,7 @@ export function ReviewPanel({ ids, diff, baseNumber, selectedStep, canComment, o
   const qc = useQueryClient();
   const comments = useQuery({ ...draftingQueries.comments(ids.procedureId, ids.versionId), enabled: canComment });
   const [body, setBody] = useState('');
+  const fmt = useFormat();
   const post = useMutation({
     mutationFn: () => addComment(ids, body, selectedStep ?? undefined),
     onSuccess: () => { setBody(''); void qc.invalidateQueries({ queryKey: draftingKeys.comments(ids.procedureId, ids.versionId) }); },
@@ -49,7 +51,7 @@ export function ReviewPanel({ ids, diff, baseNumber, selectedStep, canComment, o
           <ul className="flex flex-col gap-2" data-testid="comments">
             {comments.data?.map((c) => (
               <li key={c.id} className="rounded-lg bg-paper p-2 text-sm">
-                <p className="text-xs text-ink-soft">{c.author ?? 'Someone'} · {new Date(c.createdAt).toLocaleString()}{c.stepId && <> · on <button type="button" className="underline" onClick={() => onPick(c.stepId!)}>{c.stepId}</button></>}</p>
+                <p className="text-xs text-ink-soft">{c.author ?? 'Someone'} · {fmt.dateTime(c.createdAt)}{c.stepId && <> · on <button type="button" className="underline" onClick={() => onPick(c.stepId!)}>{c.stepId}</button></>}</p>
                 <p className="whitespace-pre-line">{c.body}</p>
               </li>
             ))}

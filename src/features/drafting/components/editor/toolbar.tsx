@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { Badge } from '../../../../components/ui/card';
 import { cx } from '../../../../components/ui/cx';
 import type { SaveState } from '../../hooks/use-draft-saving';
+import { useFormat } from '../../../../lib/format';
 
 export function ToolButton({ onClick, disabled, label, children, pressed, shortcut }: { onClick: () => void; disabled?: boolean; label: string; children: ReactNode; pressed?: boolean; shortcut?: string }) {
   return (
@@ -12,18 +13,12 @@ export function ToolButton({ onClick, disabled, label, children, pressed, shortc
   );
 }
 
-// one formatter for the page: building an Intl formatter per render is slow on a busy machine
-let clock: Intl.DateTimeFormat | null = null;
-function time(iso: string) {
-  clock ??= new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
-  return clock.format(new Date(iso));
-}
-
 /** Where the draft stands on the server, in words. */
 export function SaveStatus({ state, editable }: { state: SaveState; editable: boolean }) {
+  const fmt = useFormat();
   if (!editable) return <span className="text-sm text-ink-soft">Read only</span>;
   const text = {
-    saved: state.kind === 'saved' ? `Saved ${time(state.at)}` : '',
+    saved: state.kind === 'saved' ? `Saved ${fmt.timeWithSeconds(state.at)}` : '',
     dirty: 'Unsaved changes',
     saving: 'Saving…',
     invalid: 'Cannot save yet',

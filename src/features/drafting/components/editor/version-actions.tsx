@@ -12,6 +12,7 @@ import { importProcedure } from '../../api/procedures';
 import { moveVersion, startDraft, exportUrl, type Move, type VersionIds } from '../../api/versions';
 import type { VersionDetail } from '../../api/types';
 import type { SaveState } from '../../hooks/use-draft-saving';
+import { useFormat } from '../../../../lib/format';
 
 interface Props {
   ids: VersionIds;
@@ -75,12 +76,13 @@ export function VersionActions({ ids, version, roles, hasOpenDraft, errors, befo
 /** A stale save: reload the other person's draft, or keep this copy as a new procedure. */
 export function ConflictNotice({ state, doc, onReload }: { state: Extract<SaveState, { kind: 'conflict' }>; doc: ProcedureDocument; onReload: () => void }) {
   const navigate = useNavigate();
+  const fmt = useFormat();
   const keep = useMutation({
     mutationFn: () => importProcedure(doc, `${doc.meta.title} (my copy)`.slice(0, 120)),
     onSuccess: (c) => navigate(`/drafting/${c.procedureId}/versions/${c.draftId}`),
   });
   return (
-    <Alert title={`${state.stale.changedBy} changed this draft at ${new Date(state.stale.changedAt).toLocaleTimeString()}`}>
+    <Alert title={`${state.stale.changedBy} changed this draft at ${fmt.timeWithSeconds(state.stale.changedAt)}`}>
       <p>Your changes are not saved and nothing was overwritten. Load their version (your changes here are dropped), or keep your copy as a new procedure.</p>
       <div className="mt-2 flex gap-2">
         <Button onClick={onReload}>Load their version</Button>

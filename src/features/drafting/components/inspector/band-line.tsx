@@ -1,5 +1,6 @@
-import { checkBandCoverage, formatLimit, type Quantity } from '@shared/measure';
+import { checkBandCoverage, type Quantity } from '@shared/measure';
 import type { Band } from '@shared/schema';
+import { useFormat } from '../../../../lib/format';
 
 const W = 320;
 const ROW = 16;
@@ -12,6 +13,8 @@ const LABEL = 78;
  */
 export function BandLine({ bands, quantity, unit }: { bands: Band[]; quantity: Quantity; unit: string }) {
   const problems = checkBandCoverage(bands);
+  const fmt = useFormat();
+  const limitText = (v: number) => fmt.limit(v, quantity, unit);
   const ends = bands.flatMap((b) => [b.lower?.value, b.upper?.value]).filter((v): v is number => v !== undefined);
   const lo = ends.length ? Math.min(...ends) : 0;
   const hi = ends.length ? Math.max(...ends) : 1;
@@ -38,13 +41,13 @@ export function BandLine({ bands, quantity, unit }: { bands: Band[]; quantity: Q
         {marks.map((m) => (
           <g key={m}>
             <line x1={x(m, 'lo')} x2={x(m, 'lo')} y1={(bands.length + 1) * ROW - 3} y2={(bands.length + 1) * ROW + 3} stroke="var(--color-ink)" />
-            <text x={x(m, 'lo')} y={(bands.length + 1) * ROW + 15} fontSize={9} textAnchor="middle" fill="var(--color-ink-soft)">{formatLimit(m, quantity, unit)}</text>
+            <text x={x(m, 'lo')} y={(bands.length + 1) * ROW + 15} fontSize={9} textAnchor="middle" fill="var(--color-ink-soft)">{limitText(m)}</text>
           </g>
         ))}
       </svg>
       <figcaption className="text-xs text-ink-soft">
         {problems.length === 0 ? 'Bands cover the whole number line once.' : problems.map((p) => p.kind === 'gap'
-          ? `Gap ${p.lower ? formatLimit(p.lower.value, quantity, unit) : '−∞'} … ${p.upper ? formatLimit(p.upper.value, quantity, unit) : '+∞'}`
+          ? `Gap ${p.lower ? limitText(p.lower.value) : '−∞'} … ${p.upper ? limitText(p.upper.value) : '+∞'}`
           : p.kind === 'overlap' ? `Overlap of ${p.bands.join(' and ')}` : `Band ${p.band} is empty`).join('; ')}
       </figcaption>
     </figure>

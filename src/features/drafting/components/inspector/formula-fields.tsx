@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { evaluateFormula, formatReading, parseFormula, type FormulaValue, type Quantity } from '@shared/measure';
+import { evaluateFormula, parseFormula, type FormulaValue, type Quantity } from '@shared/measure';
 import { formulaStepSchema, type FormulaStep, type ProcedureDocument, type Step } from '@shared/schema';
 import { Field, Input } from '../../../../components/ui/field';
 import { BandsEditor } from './bands-editor';
@@ -7,6 +7,7 @@ import { QuantityUnit, unitFactor } from './measure-fields';
 import { NumberInput } from './number-input';
 import { TargetSelect } from './target-select';
 import { useStepForm } from './use-step-form';
+import { useFormat } from '../../../../lib/format';
 
 const exprSchema = formulaStepSchema.pick({ expression: true });
 const pickExpr = (s: Step) => ({ expression: s.kind === 'formula' ? s.expression : '' });
@@ -14,6 +15,7 @@ const pickExpr = (s: Step) => ({ expression: s.kind === 'formula' ? s.expression
 /** Sample values for the steps a formula names, and the result the shared evaluator gives. */
 function LiveEvaluation({ step, doc }: { step: FormulaStep; doc: ProcedureDocument }) {
   const [samples, setSamples] = useState<Record<string, number>>({});
+  const fmt = useFormat();
   const parsed = parseFormula(step.expression);
   if (!parsed.ok) return <p role="status" className="text-sm text-stop">{parsed.error.message}</p>;
   const values: Record<string, FormulaValue> = {};
@@ -32,7 +34,7 @@ function LiveEvaluation({ step, doc }: { step: FormulaStep; doc: ProcedureDocume
           <NumberInput label={`Sample value of ${ref}`} value={samples[ref] ?? 1} factor={unitFactor(quantity, unit)} onCommit={(v) => setSamples({ ...samples, [ref]: v ?? 0 })} /> {unit}</label>
         : <p key={ref} className="text-stop"><code>{ref}</code> is not a Reading or Formula of this procedure.</p>)}
       <p role="status" className={result.ok ? 'font-semibold text-go' : 'text-stop'}>
-        {result.ok ? `= ${formatReading({ value: result.value, quantity: step.quantity }, { unit: step.unit })}` : result.error.message}
+        {result.ok ? `= ${fmt.reading({ value: result.value, quantity: step.quantity }, { unit: step.unit })}` : result.error.message}
       </p>
     </div>
   );
