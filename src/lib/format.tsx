@@ -1,5 +1,5 @@
-import { createContext, useContext, type ReactNode } from 'react';
-import { useQuery } from '@tanstack/react-query';
+import { createContext, useContext, useSyncExternalStore, type ReactNode } from 'react';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { localeFormat, type LocaleFormat } from '@shared/format/locale';
 import { meQuery } from './session';
 
@@ -9,8 +9,17 @@ const FormatContext = createContext<LocaleFormat>(localeFormat(null));
 
 /** The current shop's locale, from the session: null follows the browser. */
 export function useShopLocale(): string | null {
-  const { data } = useQuery(meQuery);
-  return data?.shops.find((s) => s.id === data.currentShopId)?.locale ?? null;
+  const qc = useQueryClient();
+  useQuery(meQuery); // asks for the session when nobody has yet
+  // Read from the cache, not from the observer: sign-in and a shop switch clear the cache and put
+  // a new session in, which an observer above the router (never re-rendered) would not see.
+  return useSyncExternalStore(
+    (changed) => qc.getQueryCache().subscribe(changed),
+    () => {
+      const me = qc.getQueryData(meQuery.queryKey);
+      return me?.shops.find((s) => s.id === me.currentShopId)?.locale ?? null;
+    },
+  );
 }
 
 /**

@@ -6,7 +6,7 @@ import { api, qs } from '../../../lib/api-client';
 export interface MemberRow { id: string; userId: string; email: string; name: string; roles: Role[]; since: string; disabled: boolean }
 export interface InvitationRow { id: string; email: string; name: string; roles: Role[]; createdAt: string; expiresAt: string; state: 'open' | 'accepted' | 'expired' }
 export interface MailRow { id: number; receivedAt: string; to: string[]; subject: string; text: string }
-export interface ShopSettingsDto { name: string; settings: { comebackDays: number; abandonAfterHours: number; serviceDeskEmail: string } }
+export interface ShopSettingsDto { name: string; settings: { comebackDays: number; abandonAfterHours: number; serviceDeskEmail: string }; locale: string | null }
 export interface MeterRow { id: string; name: string; spec: { entries: { quantity: string; percentOfReading: number; counts: number; resolution: number }[] } }
 
 export const shopKeys = {

@@ -1,19 +1,21 @@
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { Controller, useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { ShopSettingsInput } from '@shared/schema/shop';
 import { api } from '../../../lib/api-client';
+import { meQuery } from '../../../lib/session';
 import { applyServerIssues } from '../../../lib/forms';
 import { Field, Input } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
 import { Alert, Card, PageHeader, Spinner } from '../../../components/ui/card';
 import { shopKeys, shopQueries, type ShopSettingsDto } from '../api/queries';
+import { LocalePicker } from './locale-picker';
 
 function SettingsForm({ initial }: { initial: ShopSettingsDto }) {
   const qc = useQueryClient();
   const [msg, setMsg] = useState('');
-  const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<ShopSettingsInput>({
+  const { register, control, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<ShopSettingsInput>({
     resolver: zodResolver(ShopSettingsInput),
     defaultValues: initial,
   });
@@ -23,8 +25,10 @@ function SettingsForm({ initial }: { initial: ShopSettingsDto }) {
       await api.put('/api/shop/settings', v);
       setMsg('Saved.');
       void qc.invalidateQueries({ queryKey: shopKeys.settings() });
+      // the session carries the shop's locale to every area
+      void qc.invalidateQueries({ queryKey: meQuery.queryKey });
     } catch (err) {
-      setMsg(applyServerIssues(err, setError, ['name', 'settings']));
+      setMsg(applyServerIssues(err, setError, ['name', 'settings', 'locale']));
     }
   });
   return (
@@ -40,6 +44,9 @@ function SettingsForm({ initial }: { initial: ShopSettingsDto }) {
       <Field label="Service desk e-mail" hint="Diagnosis reports are sent here." error={errors.settings?.serviceDeskEmail?.message}>
         <Input type="email" {...register('settings.serviceDeskEmail')} />
       </Field>
+      <Controller control={control} name="locale" render={({ field }) => (
+        <LocalePicker value={field.value ?? null} onChange={field.onChange} error={errors.locale?.message} />
+      )} />
       <Button type="submit" busy={isSubmitting} className="justify-self-start">Save settings</Button>
     </form>
   );
