@@ -75,7 +75,7 @@ test('an admin sets the shop to de-DE; the Bench shows a reading back as 5,95 k�
     await phone.goto(`/bench/d/${id}/record`);
     await expect(phone.getByRole('list', { name: 'Timeline' })).toBeVisible();
     await expect(phone.getByText(/started /)).toContainText(germanDateTime);
-    await expect(phone.getByTestId('record-answer').filter({ hasText: '5,95' })).toHaveText(/^5,95 → 5,95 kΩ · limits 4 kΩ to 6 kΩ$/);
+    await expect(phone.getByTestId('record-answer').filter({ hasText: '5,95' })).toHaveText(/^5,95 → 5,95 kΩ · limits 4 – 6 kΩ$/);
     await expect(phone.getByTestId('record-acknowledged').first()).toHaveText(/^DANGER note acknowledged at \d{2}:\d{2}$/);
     await shot(phone, 'bench-record-de-DE');
     await phone.context().close();
