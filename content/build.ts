@@ -1,4 +1,4 @@
-import { procedureDocumentSchema, type ProcedureDocument, type ProcedureMeta, type SafetyNote, type StepInput } from '@shared/schema';
+import { CURRENT_SCHEMA_VERSION, procedureDocumentSchema, type ProcedureDocument, type ProcedureMeta, type SafetyNote, type StepInput } from '@shared/schema';
 import type { Hazard, MeterSpec } from '@shared/schema';
 import type { ReadingQuantity } from '@shared/measure';
 import { layoutTopDown } from './layout';
@@ -85,7 +85,7 @@ export function secondaryAt20(next: { low: string; ok: string; high: string }): 
 
 /** Builds, lays out top-down and validates a demo procedure. */
 export function procedure(meta: Omit<ProcedureMeta, 'limitsNote' | 'minutesPerStep'> & { minutesPerStep?: number }, start: string, steps: StepInput[]): ProcedureDocument {
-  const doc = procedureDocumentSchema.parse({ schemaVersion: 1, meta: { ...meta, limitsNote: LIMITS_NOTE }, start, steps });
+  const doc = procedureDocumentSchema.parse({ schemaVersion: CURRENT_SCHEMA_VERSION, meta: { ...meta, limitsNote: LIMITS_NOTE }, start, steps });
   return layoutTopDown(doc);
 }
 

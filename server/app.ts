@@ -17,6 +17,7 @@ import { requestId } from './middleware/request-id';
 import { errorHandler, apiNotFound } from './middleware/error-handler';
 import { storableText } from './middleware/storable-text';
 import { apiRouter } from './routes';
+import { IMPORT_BODY_LIMIT } from './services/procedure-transfer.service';
 
 export const CSRF_HEADER = 'x-csrf-token';
 
@@ -91,6 +92,8 @@ export function createApp(deps: AppDeps, first?: (app: Express) => void): Expres
 
   const csrf = csrfSync({ size: 32, getTokenFromRequest: (req) => req.headers[CSRF_HEADER] as string | undefined });
   if (deps.reads) app.use('/api', deps.reads.markWrites);
+  // A procedure file carries its pictures (base64), so import alone reads a larger body.
+  app.use('/api/procedures/import', express.json({ limit: IMPORT_BODY_LIMIT }));
   app.use('/api', express.json({ limit: '5mb' }), storableText);
   app.use('/api', csrf.csrfSynchronisedProtection);
   app.use('/api', apiRouter(deps, csrf.generateToken));

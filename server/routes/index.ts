@@ -10,6 +10,7 @@ import { benchRoutes } from './bench.routes';
 import { diagnosisRoutes } from './diagnosis.routes';
 import { attachmentRoutes } from './attachment.routes';
 import { procedureRoutes } from './procedure.routes';
+import { pictureRoutes, pictureUploadRoute } from './picture.routes';
 import { debriefRoutes } from './debrief.routes';
 
 /**
@@ -26,7 +27,7 @@ export function apiRouter(deps: AppDeps, csrfToken: (req: Request, overwrite?: b
   // the busiest), so a request passes one router per level and no more.
   const areas: [string, Router][] = [
     ['/diagnoses', diagnosisRoutes(deps)], ['/bench', benchRoutes(deps)], ['/attachments', attachmentRoutes(deps)],
-    ['/vehicles', vehicleRoutes()], ['/procedures', procedureRoutes(deps)], ['/debrief', debriefRoutes(deps)], ['/shop', shopRoutes(deps)],
+    ['/vehicles', vehicleRoutes()], ['/procedures', procedureRoutes(deps)], ['/procedures', pictureUploadRoute(deps)], ['/pictures', pictureRoutes(deps)], ['/debrief', debriefRoutes(deps)], ['/shop', shopRoutes(deps)],
   ];
   for (const [path, router] of areas) api.use(path, requireShop, router);
   return api;

@@ -73,7 +73,7 @@ export function procedureRoutes(deps: AppDeps): Router {
     res.json(await versions.moveVersion(deps, ctxOf(req), ids(req), 'retire'));
   });
   r.get('/:id/versions/:versionId/export', async (req, res) => {
-    const { file, filename } = await transfer.exportVersion(ctxOf(req), ids(req));
+    const { file, filename } = await transfer.exportVersion(deps, ctxOf(req), ids(req));
     res.attachment(filename).type('application/json').send(JSON.stringify(file, null, 2));
   });
   r.get('/:id/versions/:versionId/comments', drafting, async (req, res) => {

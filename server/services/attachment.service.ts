@@ -1,48 +1,15 @@
-import { fileTypeFromBuffer } from 'file-type';
 import { QueryTypes } from 'sequelize';
 import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
 import { AppError, badRequest, notFound } from '../lib/errors';
+import { checkName, IMAGE_TYPES, imageType, MAX_PHOTO_BYTES } from './image-check';
 import { findReadable } from './diagnosis.service';
 import { checkDiagnosis } from '../auth/policy';
 
-/** Photos up to 8 MB (the error handler's message names the same figure). */
-export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
-const IMAGE_TYPES: Record<string, string> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' };
+export { MAX_PHOTO_BYTES };
 
 export interface UploadedFile { originalname: string; buffer: Buffer; size: number }
 export interface AttachmentDto { id: string; diagnosisId: string; stepId: string | null; contentType: string; byteSize: number; originalName: string; hasThumb: boolean }
-
-/** A name with a folder in it (or a parent reference) is refused rather than cleaned up silently. */
-function checkName(name: string): void {
-  if (/[\\/]/.test(name) || name.includes('..') || name.includes('\0')) {
-    throw badRequest('The file name contains a folder path. Send the photo with a plain file name such as photo.jpg.', [{ path: 'photo', message: 'Plain file names only' }]);
-  }
-}
-
-// Markup a browser would run if it ever took the file for a page. A camera picture never holds it
-// (XMP metadata is XML, but none of these tags), so a picture that does is a polyglot.
-const MARKUP = /<(?:script|html|svg|body|iframe|object|embed|!doctype|\?php)[\s/>]|javascript:/i;
-const PNG_END = Buffer.from([0, 0, 0, 0, 0x49, 0x45, 0x4e, 0x44, 0xae, 0x42, 0x60, 0x82]);
-
-/** A PNG ends with its IEND chunk, a WebP is as long as its RIFF header says; anything after is smuggled. */
-function wholeImage(mime: string, bytes: Buffer): boolean {
-  if (mime === 'image/png') return bytes.subarray(-PNG_END.length).equals(PNG_END);
-  if (mime === 'image/webp') return bytes.length >= 12 && bytes.readUInt32LE(4) + 8 === bytes.length;
-  return true; // a camera JPEG may carry more after its end (a second picture, a motion clip)
-}
-
-/** The type the bytes really are; a renamed document, or a picture that is also a page or script, is refused. */
-async function imageType(file: UploadedFile, field: string): Promise<string> {
-  const t = await fileTypeFromBuffer(file.buffer);
-  if (!t || !IMAGE_TYPES[t.mime]) {
-    throw new AppError(415, 'not_an_image', `The ${field} is not a JPEG, PNG or WebP picture (its contents say ${t ? t.mime : 'unknown'}). Take or pick a photo instead.`);
-  }
-  if (MARKUP.test(file.buffer.toString('latin1')) || !wholeImage(t.mime, file.buffer)) {
-    throw new AppError(415, 'not_an_image', `The ${field} holds more than a picture (web page or script code, or data after the image). Take or pick the photo again.`);
-  }
-  return t.mime;
-}
 
 async function writable(deps: AppDeps, ctx: ShopContext, diagnosisId: string): Promise<void> {
   const [d] = await deps.sequelize.query<{ technician_id: string }>(
@@ -69,8 +36,8 @@ export async function addPhoto(deps: AppDeps, ctx: ShopContext, input: { id: str
     if (existing.diagnosis_id !== input.diagnosisId) throw new AppError(422, 'id_reused', 'A different photo was already stored with this id. Attach the photo again.');
     return { created: false, attachment: toDto(existing) };
   }
-  const mime = await imageType(input.photo, 'photo');
-  const thumbMime = input.thumb ? await imageType(input.thumb, 'thumbnail') : null;
+  const mime = await imageType(input.photo.buffer, 'photo');
+  const thumbMime = input.thumb ? await imageType(input.thumb.buffer, 'thumbnail') : null;
   const base = `shops/${ctx.shopId}/diagnoses/${input.diagnosisId}/${input.id}`;
   const objectKey = `${base}.${IMAGE_TYPES[mime]}`;
   const thumbKey = thumbMime ? `${base}-thumb.${IMAGE_TYPES[thumbMime]}` : null;

@@ -8,6 +8,7 @@ import { audit } from './audit';
 import { expectStatus, findProcedure, findVersion, namesOf, versionSummary, type VersionSummary } from './procedure-common';
 import { lintDocument } from './procedure-lint';
 import type { SaveDraftBody } from './procedure-inputs';
+import { checkPictureRefs } from './step-picture.service';
 
 export interface VersionDetail extends VersionSummary {
   document: ProcedureDocument;
@@ -63,6 +64,7 @@ export async function saveDraft(deps: AppDeps, ctx: ShopContext, ids: { procedur
   return withVersion(deps, ctx, ids, async (v, p, t) => {
     expectStatus(v, ['draft'], 'edited (published versions never change; start a new draft from them)');
     if (v.lockVersion !== body.lockVersion) throw await staleSave(v, t);
+    await checkPictureRefs(deps, ctx, body.document, t);
     await v.update({
       document: body.document as unknown as Record<string, unknown>, lintReport: lintDocument(body.document).findings,
       lockVersion: v.lockVersion + 1, updatedBy: ctx.userId,

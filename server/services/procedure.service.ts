@@ -1,4 +1,4 @@
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import type { ShopContext } from '../auth/context';
 import type { AppDeps } from '../deps';
 import { Procedure, ProcedureVersion } from '../models';
@@ -94,7 +94,8 @@ export function starterDocument(meta: ProcedureMeta): ProcedureDocument {
 
 /** Creates a procedure with its first draft (from `document`, or the starter) in one transaction. */
 export async function createProcedure(
-  deps: AppDeps, ctx: ShopContext, input: { meta: ProcedureMeta; document?: ProcedureDocument; action?: string },
+  deps: AppDeps, ctx: ShopContext,
+  input: { meta: ProcedureMeta; document?: ProcedureDocument; action?: string; alsoStore?: (ids: { procedureId: string; draftId: string }, t: Transaction) => Promise<unknown> },
 ): Promise<{ procedureId: string; draftId: string }> {
   const document = input.document ?? starterDocument(input.meta);
   return deps.sequelize.transaction(async (transaction) => {
@@ -107,6 +108,7 @@ export async function createProcedure(
       lintReport: lintDocument(document).findings, basedOnId: null, createdBy: ctx.userId, updatedBy: ctx.userId,
       publishedBy: null, publishedAt: null, retiredAt: null,
     }, { transaction });
+    await input.alsoStore?.({ procedureId: p.id, draftId: v.id }, transaction);
     await audit({ shopId: ctx.shopId, userId: ctx.userId, action: input.action ?? 'procedure.created', entity: 'procedure', entityId: p.id }, transaction);
     return { procedureId: p.id, draftId: v.id };
   });

@@ -12,7 +12,22 @@ import { QUANTITIES, READING_QUANTITIES, isDisplayUnit } from '../measure/quanti
  * J); `unit` only says how the step shows them and what a bare typed number means.
  */
 
-export const CURRENT_SCHEMA_VERSION = 1 as const;
+export const CURRENT_SCHEMA_VERSION = 2 as const;
+
+/** At most this many reference pictures on one step. */
+export const MAX_PICTURES_PER_STEP = 8;
+
+/**
+ * A reference picture on a step (where to probe, a connector's pins, a good spark): the id of a
+ * stored picture of the shop and its caption, which is also the picture's alt text. The bytes
+ * live in object storage; the document keeps the order and the words, so a version's pictures
+ * are as immutable as the version. Added in schema version 2.
+ */
+export const stepPictureSchema = z.object({
+  id: z.string().uuid('A picture is named by the id the upload answered'),
+  caption: z.string().trim().min(1, 'Say what the picture shows (the caption is also read aloud to those who cannot see it)').max(200),
+});
+export type StepPicture = z.infer<typeof stepPictureSchema>;
 
 /** Identifier-like so that a Formula can name an earlier step: `parallel(primaryOhms, capOhms)`. */
 export const stepIdSchema = z
@@ -107,6 +122,7 @@ const stepBase = {
   /** Estimated minutes for this step; defaults to the procedure's minutes per step. */
   minutes: z.number().finite().min(0).max(600).optional(),
   position: positionSchema.default({ x: 0, y: 0 }),
+  pictures: z.array(stepPictureSchema).max(MAX_PICTURES_PER_STEP, `At most ${MAX_PICTURES_PER_STEP} pictures on one step`).optional(),
 };
 
 export const readingStepSchema = z.object({

@@ -5,11 +5,26 @@ import { CURRENT_SCHEMA_VERSION, procedureDocumentSchema, type ProcedureDocument
 export type UpgradeStep = (doc: Record<string, unknown>) => Record<string, unknown>;
 
 /**
- * One entry per version step: `UPGRADES[n]` turns version n into n + 1. Version 1 is the first
- * published shape, so the table is empty today; a later schema adds `2: (v1) => ...` here with a
- * test for that step, and stored documents keep loading.
+ * Version 1 → 2: steps may carry reference pictures (`pictures: [{ id, caption }]`). A version 1
+ * step never had any, so a `pictures` field found on one was not written by Sparkwright (a hand
+ * edit, another tool) and names no stored picture: it is dropped rather than trusted.
+ * Example: `{ id: 'coil', kind: 'task', pictures: 'x' }` → `{ id: 'coil', kind: 'task' }`.
  */
-export const UPGRADES: Readonly<Record<number, UpgradeStep>> = {};
+export function upgradeV1toV2(doc: Record<string, unknown>): Record<string, unknown> {
+  if (!Array.isArray(doc.steps)) return doc;
+  const steps = doc.steps.map((s: unknown) => {
+    if (typeof s !== 'object' || s === null || !('pictures' in s)) return s;
+    const { pictures: _dropped, ...rest } = s as Record<string, unknown>;
+    return rest;
+  });
+  return { ...doc, steps };
+}
+
+/**
+ * One entry per version step: `UPGRADES[n]` turns version n into n + 1, each with its own test
+ * (tests/shared/schema/procedure.test.ts), so stored documents and old files keep loading.
+ */
+export const UPGRADES: Readonly<Record<number, UpgradeStep>> = { 1: upgradeV1toV2 };
 
 export type UpgradeResult =
   | { ok: true; document: ProcedureDocument; upgradedFrom: number }

@@ -3,7 +3,7 @@
 // check, each timed over many edits; medians and 95th percentiles in milliseconds.
 import { performance } from 'node:perf_hooks';
 import { lintProcedure } from '@shared/engine';
-import { procedureDocumentSchema, type ProcedureDocument, type StepInput } from '@shared/schema';
+import { CURRENT_SCHEMA_VERSION, procedureDocumentSchema, type ProcedureDocument, type StepInput } from '@shared/schema';
 import { historyReducer, initialHistory, type Edit, type History } from '../../src/features/drafting/lib/edits';
 import { toFlow } from '../../src/features/drafting/lib/flow';
 
@@ -26,7 +26,7 @@ export function generatedProcedure(steps: number): ProcedureDocument {
     out.push({ id: `high${i}`, kind: 'finding', title: `Open ${i}`, cause: 'Open winding', repair: 'Replace the coil' });
   }
   while (out.length < steps) out.push({ id: `spare${out.length}`, kind: 'handoff', title: 'Spare', reason: 'Unreachable on purpose' });
-  return procedureDocumentSchema.parse({ schemaVersion: 1, meta: { title: 'Generated', symptom: 'No spark', ignitionSystem: 'magneto-cdi' }, start: 'r0', steps: out });
+  return procedureDocumentSchema.parse({ schemaVersion: CURRENT_SCHEMA_VERSION, meta: { title: 'Generated', symptom: 'No spark', ignitionSystem: 'magneto-cdi' }, start: 'r0', steps: out });
 }
 
 const median = (xs: number[]) => { const s = [...xs].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]!; };

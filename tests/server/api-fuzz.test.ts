@@ -61,6 +61,8 @@ function realParam(route: RouteEntry, name: string): string {
   if (name === 'versionId') return draft.versionId;
   if (name === 'slug') return world.slug;
   if (name === 'token') return 'not-a-real-invitation-token';
+  if (name === 'size') return 'phone';
+  if (p.startsWith('/api/pictures/')) return world.pictureId;
   if (p.startsWith('/api/procedures/:id/versions')) return draft.procedureId;
   if (p.startsWith('/api/procedures/')) return world.procedureId;
   if (p.includes('/diagnoses/')) return world.diagnosisId;

@@ -91,6 +91,9 @@ export const POLICY: Readonly<Record<string, Rule>> = {
   'GET /api/procedures/:id/versions/:versionId/export': { may: MEMBERS },
   'GET /api/procedures/:id/versions/:versionId/comments': { may: DRAFTING },
   'POST /api/procedures/:id/versions/:versionId/comments': { may: DRAFTING },
+  'POST /api/procedures/:id/versions/:versionId/pictures': { may: AUTHOR },
+  // a step's reference pictures: every member walks procedures, so every member sees them
+  'GET /api/pictures/:id/:size': { may: MEMBERS },
 
   // Debrief: the replay and the list follow the same diagnosis readers as the Bench's record
   'GET /api/debrief/procedures': { may: ANALYSTS },

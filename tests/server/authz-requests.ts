@@ -101,6 +101,12 @@ export const REQUESTS: Readonly<Record<string, CellRequest>> = {
   'POST /api/procedures/:id/versions/:versionId/retire': { send: async ({ c, w }) => c.post(versionUrl(await w.fresh.version('published'), '/retire')), foreign: true },
   'GET /api/procedures/:id/versions/:versionId/export': { send: ({ c, w }) => c.get(versionUrl(w, '/export')), foreign: true },
   'GET /api/procedures/:id/versions/:versionId/comments': { send: ({ c, w }) => c.get(versionUrl(w, '/comments')), foreign: true },
+  'POST /api/procedures/:id/versions/:versionId/pictures': {
+    send: async ({ c, w }) => c.agent.post(versionUrl(await w.fresh.version('draft'), '/pictures')).set('X-CSRF-Token', c.csrf)
+      .field('stepId', 'prepare').attach('picture', TINY_PNG, 'pins.png'),
+    foreign: true,
+  },
+  'GET /api/pictures/:id/:size': { send: ({ c, w }) => c.get(`/api/pictures/${w.pictureId}/phone`), foreign: true },
   'POST /api/procedures/:id/versions/:versionId/comments': { send: ({ c, w }) => c.post(versionUrl(w, '/comments'), { body: 'Matrix comment' }), foreign: true },
 
   'GET /api/debrief/procedures': { send: ({ c }) => c.get('/api/debrief/procedures') },

@@ -5,6 +5,7 @@ import type { Role } from '@shared/schema/roles';
 import { fixtureDoc, publishFixture } from './debrief.fixture';
 import type { Client, TestEnv } from './harness';
 import { TINY_PNG } from './bench-fixtures';
+import { preparePicture, storePictures } from '../../server/services/step-picture.service';
 
 /**
  * The rows of one shop that the authorization matrix points at: a published procedure, a
@@ -21,6 +22,8 @@ export interface ShopWorld {
   /** a diagnosis of the shop's technician */
   diagnosisId: string;
   attachmentId: string;
+  /** a reference picture stored for the published procedure's step `prepare` */
+  pictureId: string;
   memberId: string;
   /** the technician whose diagnoses these are */
   technicianId: string;
@@ -68,7 +71,10 @@ export async function buildWorld(env: TestEnv, shopId: string, technicianId: str
     expiresAt: new Date(Date.now() + 86_400_000), acceptedAt: null,
   })).id;
   const diagnosisId = await diagnosis();
+  const pictureId = randomUUID();
+  await storePictures(env.runtime.deps, { shopId, procedureId, versionId, userId: technicianId }, [{ id: pictureId, stepId: 'prepare', picture: await preparePicture(TINY_PNG, 'pins.png') }]);
   return {
+    pictureId,
     shopId, procedureId, versionId, slug, vehicleId: vehicle.id, meterId: meter.id, diagnosisId, technicianId,
     attachmentId: await photo(diagnosisId), memberId: await member(),
     fresh: { diagnosis, version, member, invitation },

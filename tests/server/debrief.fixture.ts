@@ -1,5 +1,5 @@
 import { QueryTypes } from 'sequelize';
-import { procedureDocumentSchema, type ProcedureDocument, type ProcedureDocumentInput } from '@shared/schema';
+import { CURRENT_SCHEMA_VERSION, procedureDocumentSchema, type ProcedureDocument, type ProcedureDocumentInput } from '@shared/schema';
 import type { AppDeps } from '../../server/deps';
 
 /**
@@ -8,7 +8,7 @@ import type { AppDeps } from '../../server/deps';
  * a substitution Finding; a spark at the tester hands off.
  */
 export const FIXTURE_DOC: ProcedureDocumentInput = {
-  schemaVersion: 1,
+  schemaVersion: CURRENT_SCHEMA_VERSION,
   meta: { title: 'Debrief fixture: no spark', symptom: 'No spark', ignitionSystem: 'magneto-cdi', minutesPerStep: 2 },
   start: 'prepare',
   steps: [

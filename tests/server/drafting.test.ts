@@ -3,7 +3,7 @@ import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, 
 import { doc, ohmsReading, observation, finding } from '../shared/fixtures';
 import { randomUUID } from 'node:crypto';
 import { Diagnosis, Procedure, ProcedureVersion, User, Vehicle } from '../../server/models';
-import type { ProcedureDocument } from '@shared/schema';
+import { CURRENT_SCHEMA_VERSION, type ProcedureDocument } from '@shared/schema';
 
 let env: TestEnv;
 let author: Client;
@@ -172,7 +172,7 @@ describe('import and export', () => {
     const exported = await author.get(url(ids, '/export')).expect(200);
     expect(exported.headers['content-disposition']).toMatch(/round-trip-draft\.json/);
     const file = JSON.parse(exported.text);
-    expect(file).toMatchObject({ format: 'sparkwright-procedure', document: { schemaVersion: 1 } });
+    expect(file).toMatchObject({ format: 'sparkwright-procedure', document: { schemaVersion: CURRENT_SCHEMA_VERSION } });
     const imported = await author.post('/api/procedures/import', { file, title: 'Round trip imported' }).expect(201);
     const draft = await author.get(`/api/procedures/${imported.body.procedureId}/versions/${imported.body.draftId}`).expect(200);
     expect(draft.body.document.steps).toEqual(file.document.steps);

@@ -11,7 +11,7 @@ beforeAll(async () => {
 afterAll(async () => { await env.close(); });
 
 const tinyProcedure = {
-  schemaVersion: 1,
+  schemaVersion: 2,
   meta: { title: 'Plug check', symptom: 'No spark', ignitionSystem: 'magneto-cdi' },
   start: 'look',
   steps: [

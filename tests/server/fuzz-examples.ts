@@ -35,6 +35,8 @@ export function exampleBodies(w: ShopWorld, email: string): Record<string, unkno
     'PUT /api/procedures/:id/versions/:versionId': { document: fixtureDoc(), lockVersion: 1 },
     'POST /api/procedures/:id/versions/:versionId/send-back': { comment: 'Add a band' },
     'POST /api/procedures/:id/versions/:versionId/comments': { body: 'Fuzz comment', stepId: 'prepare' },
+    // multipart in the app; a JSON body never carries the picture, so every fuzzed request is refused before storage
+    'POST /api/procedures/:id/versions/:versionId/pictures': { stepId: 'prepare' },
     'POST /api/debrief/diagnoses/:id/coaching-notes': { body: 'Fuzz note', stepId: 'prepare' },
     'POST /api/debrief/advisor/drafts': { versionId: w.versionId, order: ['pulserGap', 'exciter', 'killSwitch', 'coilPrimary'] },
     'PATCH /api/shop/members/:id': { roles: ['technician'] },

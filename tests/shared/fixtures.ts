@@ -1,9 +1,9 @@
-import { procedureDocumentSchema, type ProcedureDocument, type ProcedureDocumentInput, type StepInput } from '@shared/schema';
+import { CURRENT_SCHEMA_VERSION, procedureDocumentSchema, type ProcedureDocument, type ProcedureDocumentInput, type StepInput } from '@shared/schema';
 
 /** Builds a parsed document from steps; the first step is the start unless told otherwise. */
 export function doc(steps: StepInput[], start?: string): ProcedureDocument {
   const input: ProcedureDocumentInput = {
-    schemaVersion: 1,
+    schemaVersion: CURRENT_SCHEMA_VERSION,
     meta: { title: 'Test', symptom: 'No spark', ignitionSystem: 'magneto-cdi' },
     start: start ?? steps[0]!.id,
     steps,

@@ -1,4 +1,4 @@
-import { procedureDocumentSchema, type ProcedureDocument, type StepInput } from '@shared/schema';
+import { CURRENT_SCHEMA_VERSION, procedureDocumentSchema, type ProcedureDocument, type StepInput } from '@shared/schema';
 
 import { rng } from '@shared/stats/rng';
 
@@ -57,7 +57,7 @@ export function soundProcedure(n: number, seed = 1): ProcedureDocument {
     if (list.length < 8 && v > 0 && random() < 0.05) list.push(Math.max(0, v - 1 - Math.floor(random() * 20)));
   }
   const steps = out.map((targets, i) => stepFor(i, i >= firstEnding ? [] : targets, random));
-  return procedureDocumentSchema.parse({ schemaVersion: 1, meta: { title: `Generated ${n}`, symptom: 'Generated', ignitionSystem: 'other' }, start: 's0', steps });
+  return procedureDocumentSchema.parse({ schemaVersion: CURRENT_SCHEMA_VERSION, meta: { title: `Generated ${n}`, symptom: 'Generated', ignitionSystem: 'other' }, start: 's0', steps });
 }
 
 /** An arbitrary graph (possibly unsound): random branches between Tasks and Observations. */
@@ -73,5 +73,5 @@ export function randomGraph(n: number, edges: number, seed: number): ProcedureDo
     if (targets.length === 1) return { id: id(i), kind: 'task', title: `T${i}`, next: id(targets[0]!) };
     return { id: id(i), kind: 'observation', title: `O${i}`, question: 'q', answers: targets.map((t, k) => ({ id: `a${k}`, label: `A${k}`, next: id(t) })) };
   });
-  return procedureDocumentSchema.parse({ schemaVersion: 1, meta: { title: 'Random', symptom: 'x', ignitionSystem: 'other' }, start: 's0', steps });
+  return procedureDocumentSchema.parse({ schemaVersion: CURRENT_SCHEMA_VERSION, meta: { title: 'Random', symptom: 'x', ignitionSystem: 'other' }, start: 's0', steps });
 }
