@@ -158,6 +158,17 @@ describe('differences from the last published version', () => {
     expect(diff.changed.find((c) => c.id === 'openCoil')?.fields).toEqual(['title']);
     expect(diff.changed.find((c) => c.id === 'coilPrimary')?.fields).toEqual(['bands']);
   });
+
+  it('names the pictures a step gained and lost by their captions, and an emptied list is no change', () => {
+    const [pins, probe] = ['0b0f8f0e-6a51-4f0e-9d0a-111111111111', '0b0f8f0e-6a51-4f0e-9d0a-222222222222'];
+    const base = coilCheck();
+    const withPins = applyEdit(base, { type: 'update-step', id: 'openCoil', step: { ...base.steps[3]!, pictures: [{ id: pins, caption: 'Coil pins' }] } });
+    const swapped = applyEdit(withPins, { type: 'update-step', id: 'openCoil', step: { ...withPins.steps[3]!, pictures: [{ id: probe, caption: 'Probe here' }] } });
+    const change = diffDocuments(withPins, swapped).changed.find((c) => c.id === 'openCoil');
+    expect(change).toMatchObject({ fields: ['pictures'], picturesAdded: ['Probe here'], picturesRemoved: ['Coil pins'] });
+    const emptied = applyEdit(base, { type: 'update-step', id: 'openCoil', step: { ...base.steps[3]!, pictures: [] } });
+    expect(diffDocuments(base, emptied).changed).toEqual([]);
+  });
 });
 
 describe('where the editor opens', () => {

@@ -41,6 +41,9 @@ export interface OutboxItem { seq?: number; diagnosisId: string; message: Outbox
  */
 export interface AsideItem extends OutboxItem { seq: number; setAsideAt: string }
 
+/** A reference picture of a kept version, in its phone rendition, so a step shows it without signal. */
+export interface LocalPicture { id: string; blob: Blob; bytes: number; savedAt: string }
+
 /** Lists the start page needs (procedures, machines, meters), as last fetched with signal. */
 export interface KitEntry { key: string; data: unknown; savedAt: string }
 
@@ -50,13 +53,14 @@ interface BenchDb extends DBSchema {
   diagnoses: { key: string; value: LocalDiagnosis };
   outbox: { key: number; value: OutboxItem; indexes: { byDiagnosis: string } };
   aside: { key: number; value: AsideItem; indexes: { byDiagnosis: string } };
+  pictures: { key: string; value: LocalPicture };
 }
 
 let dbPromise: Promise<IDBPDatabase<BenchDb>> | null = null;
 
 /** The Bench database on this phone (IndexedDB through idb). */
 export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
-  dbPromise ??= openDB<BenchDb>('sparkwright-bench', 3, {
+  dbPromise ??= openDB<BenchDb>('sparkwright-bench', 4, {
     // Each store is made when missing, so any earlier version of this database upgrades.
     upgrade(db) {
       const has = (name: string) => db.objectStoreNames.contains(name as never);
@@ -65,6 +69,7 @@ export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
       if (!has('outbox')) db.createObjectStore('outbox', { keyPath: 'seq', autoIncrement: true }).createIndex('byDiagnosis', 'diagnosisId');
       if (!has('kit')) db.createObjectStore('kit', { keyPath: 'key' });
       if (!has('aside')) db.createObjectStore('aside', { keyPath: 'seq' }).createIndex('byDiagnosis', 'diagnosisId');
+      if (!has('pictures')) db.createObjectStore('pictures', { keyPath: 'id' });
     },
   });
   return dbPromise;

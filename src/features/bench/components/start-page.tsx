@@ -10,6 +10,7 @@ import { LimitsNotice } from '../../../components/ui/safety';
 import { benchQueries } from '../api/queries';
 import type { MeterDto as Meter } from '@shared/schema/shop';
 import { MachinePicker } from './machine-picker';
+import { KitSizeLine } from './kit-size';
 import { startDiagnosis, type StartForm } from '../lib/start';
 import { filterProcedures, keepVersions } from '../lib/kit';
 
@@ -21,8 +22,11 @@ function ProcedureFieldset({ slug, set }: { slug: string; set: SetField }) {
   const [filter, setFilter] = useState({ symptom: '', ignitionSystem: '' });
   const all = useQuery(benchQueries.procedures());
   const shown = useMemo(() => (all.data ? filterProcedures(all.data, filter) : undefined), [all.data, filter]);
-  // With signal, keep each published version on the phone, so a later start needs none.
-  useEffect(() => { if (all.data && all.isFetchedAfterMount && navigator.onLine) void keepVersions(all.data).catch(() => undefined); }, [all.data, all.isFetchedAfterMount]);
+  const [kept, setKept] = useState(0);
+  // With signal, keep each published version and its pictures on the phone, so a later start needs none.
+  useEffect(() => {
+    if (all.data && all.isFetchedAfterMount && navigator.onLine) void keepVersions(all.data).catch(() => undefined).finally(() => setKept((n) => n + 1));
+  }, [all.data, all.isFetchedAfterMount]);
   return (
     <fieldset className="space-y-3 rounded-lg border border-line bg-panel p-3">
       <legend className="px-1 text-lg font-bold">Procedure</legend>
@@ -37,6 +41,7 @@ function ProcedureFieldset({ slug, set }: { slug: string; set: SetField }) {
         ))}
         {shown?.length === 0 && <p>No published procedure matches.</p>}
       </div>
+      <KitSizeLine refresh={kept} />
     </fieldset>
   );
 }

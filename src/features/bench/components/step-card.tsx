@@ -4,6 +4,7 @@ import type { StepView } from '@shared/engine/step-view';
 import type { FormulaValue } from '@shared/measure/formula';
 import { SafetyNote, LimitsNotice, saysServiceDataFirst } from '../../../components/ui/safety';
 import { ReadingField, type ReadingValue } from './reading-field';
+import { StepPictures } from './step-pictures';
 import type { Answer } from '../hooks/use-local-diagnosis';
 import { useFormat } from '../../../lib/format';
 
@@ -120,6 +121,7 @@ export function StepCard({ view, step, values, remeasure, remeasured, extras, on
       <h2 id="step-title" className="text-2xl font-black leading-tight">{view.title}</h2>
       <SafetyBlock view={view} acknowledgedAt={acknowledgedAt} onAcknowledge={() => setAcknowledgedAt(new Date().toISOString())} />
       {view.instructions && <p className="text-xl leading-snug">{view.instructions}</p>}
+      <StepPictures pictures={step.pictures} />
       {remeasure && <p className="rounded-lg bg-edge-soft p-3 text-lg font-semibold text-ink">The last reading was borderline: measure again.</p>}
       <LimitsBox view={view} />
       {extras(note, setNote)}

@@ -1,5 +1,6 @@
 import { api, ApiError } from '../../../lib/api-client';
 import { getVersion, readKit, saveKit, saveVersion } from '../../../lib/offline/db';
+import { keepPictures } from '../../../lib/offline/pictures';
 import type { BenchProcedure, BenchVersion } from '@shared/schema/bench';
 
 // What a phone needs to start a diagnosis without signal: the published procedures with their
@@ -22,16 +23,25 @@ export async function keptOnPhone<T>(key: string, fetcher: () => Promise<T>): Pr
   }
 }
 
-/** The latest published version of a procedure, from the server, kept on the phone as well. */
+/** The latest published version of a procedure, from the server, kept on the phone as well (its pictures follow in the background). */
 export async function fetchVersion(slug: string): Promise<BenchVersion> {
   const version = await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(slug)}`);
   await saveVersion(version);
+  void keepPictures(version.document).catch(() => undefined);
   return version;
 }
 
-/** Keeps each listed version on the phone, fetching only those it does not have yet. */
+/**
+ * Keeps each listed version on the phone with its reference pictures, fetching only what it does
+ * not have yet (a picture missed on a weak signal is fetched the next time).
+ */
 export async function keepVersions(list: readonly BenchProcedure[]): Promise<void> {
-  for (const p of list) if (!(await getVersion(p.versionId))) await fetchVersion(p.slug);
+  for (const p of list) {
+    const kept = await getVersion(p.versionId);
+    const version = kept ?? await api.get<BenchVersion>(`/api/bench/procedures/${encodeURIComponent(p.slug)}`);
+    if (!kept) await saveVersion(version);
+    await keepPictures(version.document);
+  }
 }
 
 /** The server's filter, on the phone: symptom or title contains the words; ignition system equal. */

@@ -1,5 +1,6 @@
 import { api } from '../../../lib/api-client';
 import { commitLocal, getVersion, saveVersion, type LocalRow } from '../../../lib/offline/db';
+import { keepPictures } from '../../../lib/offline/pictures';
 import type { BenchVersion, DiagnosisRecord } from '@shared/schema/bench';
 import { enteredOf } from '@shared/engine/step-entry';
 
@@ -9,7 +10,9 @@ import { enteredOf } from '@shared/engine/step-entry';
  */
 export async function resumeFromServer(id: string): Promise<void> {
   const record = await api.get<DiagnosisRecord>(`/api/diagnoses/${id}`);
-  if (!(await getVersion(record.versionId))) await saveVersion(await api.get<BenchVersion>(`/api/bench/versions/${record.versionId}`));
+  let version = await getVersion(record.versionId);
+  if (!version) await saveVersion(version = await api.get<BenchVersion>(`/api/bench/versions/${record.versionId}`));
+  void keepPictures(version.document).catch(() => undefined);
   const rows: LocalRow[] = [];
   for (const s of record.steps.filter((x) => !x.superseded)) {
     rows.push({

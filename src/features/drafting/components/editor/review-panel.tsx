@@ -8,6 +8,13 @@ import { addComment, type VersionIds } from '../../api/versions';
 import type { DocumentDiff } from '../../lib/diff';
 import { useFormat } from '../../../../lib/format';
 
+function PictureChange({ stepId, caption, added, onPick }: { stepId: string; caption: string; added: boolean; onPick: (id: string) => void }) {
+  return (
+    <li data-testid="picture-change"><button type="button" className="w-full rounded px-1 text-left hover:bg-ink/5" onClick={() => onPick(stepId)}>
+      <span className={`mr-1 font-bold ${added ? 'text-go' : 'text-stop'}`}>{added ? 'picture added' : 'picture removed'}</span><code>{stepId}</code> “{caption}”</button></li>
+  );
+}
+
 function DiffList({ diff, baseNumber, onPick, onShowRemoved }: { diff: DocumentDiff; baseNumber: number; onPick: (id: string) => void; onShowRemoved: (id: string) => void }) {
   const empty = diff.added.length + diff.removed.length + diff.changed.length + diff.meta.length === 0;
   const item = (id: string, text: string, tone: string, go = onPick, title?: string) => (
@@ -22,6 +29,10 @@ function DiffList({ diff, baseNumber, onPick, onShowRemoved }: { diff: DocumentD
         {diff.added.map((s) => item(s.id, 'added', 'text-go'))}
         {diff.removed.map((s) => item(s.id, 'removed', 'text-stop', onShowRemoved, s.title))}
         {diff.changed.map((s) => item(s.id, `changed (${s.fields.join(', ')})`, 'text-signal'))}
+        {diff.changed.flatMap((s) => [
+          ...s.picturesAdded.map((caption, i) => <PictureChange key={`pa-${s.id}-${i}`} stepId={s.id} caption={caption} added onPick={onPick} />),
+          ...s.picturesRemoved.map((caption, i) => <PictureChange key={`pr-${s.id}-${i}`} stepId={s.id} caption={caption} added={false} onPick={onPick} />),
+        ])}
         {diff.meta.length > 0 && <li className="px-1"><span className="mr-1 font-bold text-signal">procedure</span>{diff.meta.join(', ')}</li>}
       </ul>
     </div>

@@ -49,7 +49,7 @@ export function SidePanel({ ids, doc, diff, baseNumber, report, figures, checked
             ))}
           </div>
           {tab === 'step' && (selectedStep
-            ? <Inspector step={selectedStep} doc={doc} readOnly={readOnly} onEdit={onEdit} />
+            ? <Inspector ids={ids} step={selectedStep} doc={doc} readOnly={readOnly} onEdit={onEdit} />
             : <p className="text-ink-soft">{selected.length > 1 ? `${selected.length} steps selected: copy, delete or move them together.` : 'Select a step to edit it.'}</p>)}
           {tab === 'check' && checked && <><SoundnessPanel report={report} onPick={(f: LintFinding) => onPick([...f.steps].filter((id) => doc.steps.some((s) => s.id === id)))} /><FiguresPanel figures={figures} /></>}
           {tab === 'review' && <ReviewPanel ids={ids} diff={diff} baseNumber={baseNumber} selectedStep={selected[0] ?? null} canComment={canComment} onPick={(id) => onPick([id])} onShowRemoved={(id) => onShow([`${REMOVED_PREFIX}${id}`])} />}

@@ -11,6 +11,8 @@ import { FormulaFields } from './formula-fields';
 import { AnswersEditor, PartsEditor } from './list-editors';
 import { FindingText, HandoffText, ObservationText, TaskText } from './text-fields';
 import { TargetSelect } from './target-select';
+import { PicturesEditor } from './pictures-editor';
+import type { VersionIds } from '../../api/versions';
 
 function KindFields({ step, doc, stepIds, readOnly, update }: { step: Step; doc: ProcedureDocument; stepIds: string[]; readOnly: boolean; update: (s: Step) => void }) {
   switch (step.kind) {
@@ -45,7 +47,7 @@ function KindFields({ step, doc, stepIds, readOnly, update }: { step: Step; doc:
 }
 
 /** The form for the selected step; every change is one `update-step` edit (undoable). */
-export function Inspector({ step, doc, readOnly, onEdit }: { step: Step; doc: ProcedureDocument; readOnly: boolean; onEdit: (e: Edit) => void }) {
+export function Inspector({ ids, step, doc, readOnly, onEdit }: { ids: VersionIds; step: Step; doc: ProcedureDocument; readOnly: boolean; onEdit: (e: Edit) => void }) {
   const update = useCallback((next: Step) => onEdit({ type: 'update-step', id: step.id, step: next }), [onEdit, step.id]);
   const stepIds = doc.steps.map((s) => s.id).filter((id) => id !== step.id);
   return (
@@ -62,6 +64,7 @@ export function Inspector({ step, doc, readOnly, onEdit }: { step: Step; doc: Pr
       <CommonFields step={step} takenIds={stepIds} readOnly={readOnly} onChange={update} />
       <KindFields step={step} doc={doc} stepIds={stepIds} readOnly={readOnly} update={update} />
       <SafetyEditor notes={step.safety} hazards={step.hazards} disabled={readOnly} onChange={(v) => update({ ...step, ...v })} />
+      <PicturesEditor ids={ids} step={step} readOnly={readOnly} onChange={update} />
     </section>
   );
 }
