@@ -1,6 +1,6 @@
 import { PNG } from 'pngjs';
 import { test, expect, type Browser, type Page } from '@playwright/test';
-import { signIn, shot, axe, DEMO_PASSWORD } from './helpers';
+import { signIn, shot, axe } from './helpers';
 
 // Issue 13 part 1: an author puts a reference picture on a step and the version is published; a
 // technician's phone keeps it with the version and shows it on the step without signal.
