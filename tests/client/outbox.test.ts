@@ -298,7 +298,7 @@ describe('a failed write to the phone\'s storage', () => {
 });
 
 describe('the Bench database on the phone upgrades in place', () => {
-  it('v2 database upgrades to v3 keeping queued messages', async () => {
+  it('v2 database upgrades to the current version (v4: pictures) keeping queued messages', async () => {
     // Version 2 exactly as phones have it: four stores, the outbox indexed by diagnosis.
     const v2 = await openDB('sparkwright-bench', 2, {
       upgrade(d) {
@@ -312,9 +312,9 @@ describe('the Bench database on the phone upgrades in place', () => {
     for (const message of [start('d1'), step('a')]) await v2.add('outbox', { diagnosisId: 'd1', message, createdAt: '2026-12-02T08:00:00Z' });
     v2.close();
 
-    const v3 = await db.benchDb();
-    expect(v3.version).toBe(3);
-    expect([...v3.objectStoreNames].sort()).toEqual(['aside', 'diagnoses', 'kit', 'outbox', 'versions']);
+    const v4 = await db.benchDb();
+    expect(v4.version).toBe(4);
+    expect([...v4.objectStoreNames].sort()).toEqual(['aside', 'diagnoses', 'kit', 'outbox', 'pictures', 'versions']);
     expect(await queuedIds()).toEqual(['d1', 'a']);
 
     await outbox.flushOutbox();

@@ -10,6 +10,7 @@ import type { LocalPhoto } from '../../../lib/offline/db';
 import { useLocalDiagnosis } from '../hooks/use-local-diagnosis';
 import { StepCard } from './step-card';
 import { EndingForm } from './ending-form';
+import { StepPictures } from './step-pictures';
 import { PathList } from './path-list';
 import { progressOf, type Progress } from './progress-line';
 import { PhotoField } from './photo-field';
@@ -128,7 +129,7 @@ export function DiagnosisScreen() {
       )}
 
       {!editPath && state.status === 'ended' && state.ending && d.diagnosis.status === 'active' && (
-        <EndingForm view={state.ending} onFinish={(outcome, note) => d.finish(state.ending!.id, outcome, note, startedAt)}
+        <EndingForm view={state.ending} pictures={<StepPictures pictures={doc.steps.find((s) => s.id === state.ending!.id)?.pictures} />} onFinish={(outcome, note) => d.finish(state.ending!.id, outcome, note, startedAt)}
           photos={<PhotoField photos={photosHere} onAdd={(f) => d.addPhoto(f, state.ending!.id)} />} />
       )}
       {d.diagnosis.status !== 'active' && <EndedNotice id={id} finished={d.diagnosis.status === 'finished'} />}

@@ -59,7 +59,7 @@ function FindingFields({ view, parts, onParts, final, onFinal, labour, onLabour 
 }
 
 /** A Finding: what was done, the final check and the labour; a Hand-off: the reason. */
-export function EndingForm({ view, photos, onFinish }: { view: StepView; photos: ReactNode; onFinish(outcome: EndingOutcome, note: string): Promise<void> }) {
+export function EndingForm({ view, pictures, photos, onFinish }: { view: StepView; pictures?: ReactNode; photos: ReactNode; onFinish(outcome: EndingOutcome, note: string): Promise<void> }) {
   // the form's state lives here, not in the fields, so it stays while the screen around it re-renders
   const [parts, setParts] = useState<Part[]>(() => (view.parts ?? []).map((p) => ({ name: p.name, lot: '', fitted: true })));
   const [final, setFinal] = useState<FinalCheck>({ spark: false, runs: false, stops: false });
@@ -83,6 +83,7 @@ export function EndingForm({ view, photos, onFinish }: { view: StepView; photos:
       <p className="text-lg font-bold uppercase tracking-wide text-signal">{finding ? 'Finding' : 'Hand-off'}</p>
       <h2 id="ending-title" className="text-2xl font-black">{view.title}</h2>
       <SafetyBlock view={view} acknowledgedAt={null} locks={false} onAcknowledge={() => undefined} />
+      {pictures}
       {finding ? <FindingFields view={view} parts={parts} onParts={setParts} final={final} onFinal={setFinal} labour={labour} onLabour={setLabour} /> : (
         <label className="block text-lg font-bold">Why the machine goes to a senior technician
           <textarea className={`${input} min-h-28 py-2`} value={reason} onChange={(e) => setReason(e.target.value)} />
