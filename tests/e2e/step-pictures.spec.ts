@@ -97,6 +97,7 @@ test('an author adds a picture to a step and it is published; a phone shows it o
   await expect.poll(() => keptPictures(page), { timeout: 20_000 }).toBeGreaterThanOrEqual(1);
   await page.reload(); // the kit's size is read when the page opens
   await expect(page.getByTestId('kit-size')).toContainText(/with \d+ pictures?, [\d.]+ MB/);
+  await shot(page, 'bench-start-kit-size');
   await page.getByRole('radio', { name: new RegExp(TITLE) }).check();
   await page.getByLabel('Find a machine').fill('W-03');
   await page.getByRole('radio', { name: /^W-03/ }).first().check();
