@@ -242,6 +242,22 @@ describe('the procedure file carries its pictures', () => {
     expect({ procedures: await Procedure.count(), objects: storedObjectCount(env), rows: await pictureRows() }).toEqual(before);
   });
 
+  it('a file larger than the usual 5 MB request limit imports when its pictures make it so', async () => {
+    // 1200 × 1000 of noise: a PNG that does not compress, about 4.6 MB, so over 6 MB as base64
+    const png = new PNG({ width: 1200, height: 1000 });
+    let x = 12345;
+    for (let i = 0; i < png.data.length; i++) { x = (Math.imul(x, 1103515245) + 12345) >>> 0; png.data[i] = i % 4 === 3 ? 255 : x >>> 24; }
+    const noisy = PNG.sync.write(png);
+    const ids = await createDraft('Big file');
+    const id = (await upload(author, ids, noisy, 'wiring.png').expect(201)).body.id as string;
+    await attach(ids, [{ id, caption: 'Wiring sketch' }]);
+    const text = (await author.get(url(ids, '/export')).expect(200)).text;
+    expect(text.length).toBeGreaterThan(5 * 1024 * 1024);
+    const res = await author.post('/api/procedures/import', { file: JSON.parse(text), title: 'Big file imported' });
+    expect(res.status, JSON.stringify(res.body).slice(0, 300)).toBe(201);
+    expect(res.body.pictures).toBe(1);
+  });
+
   it('a version 1 file (before pictures) still imports, upgraded to version 2', async () => {
     const v1 = { ...soundDocument('Old file'), schemaVersion: 1 };
     const res = await author.post('/api/procedures/import', { file: { format: 'sparkwright-procedure', document: v1 } }).expect(201);
