@@ -69,4 +69,33 @@ describe('walking a diagnosis from the rows kept on the phone', () => {
     expect(temp?.kind === 'reading' && temp.meter).toEqual({ percentOfReading: 1, counts: 2, resolution: 0.1 });
     expect(cap?.kind === 'reading' && cap.meter?.percentOfReading).not.toBe(9);
   });
+
+  it('going on from the walk before a tap gives the same state as a replay from the start, one walker step per tap', () => {
+    let rows: LocalRow[] = [];
+    let walked = walkRows(noSpark, rows);
+    for (const [stepId, extra] of [...toCoilSecondary, ['coilSecondary', { entered: '3.5k' }], ['exciterOhms', { entered: '2.1k' }]] as [string, Partial<LocalRow>][]) {
+      const withAnswer = [...rows, row(stepId, afterFor(walked.path, walked.path.length), extra)];
+      const onward = walkRows(noSpark, withAnswer, walked);
+      rows = [...withAnswer, ...formulaRows(noSpark, withAnswer, T, onward)];
+      const earlier = walked.walk.record[0];
+      walked = walkRows(noSpark, rows, onward);
+      const replay = walkRows(noSpark, rows);
+      expect(walked.state).toEqual(replay.state);
+      expect(walked.path).toEqual(replay.path);
+      // Went on rather than replayed: the entries walked before are the very same records.
+      if (earlier) expect(walked.walk.record[0]).toBe(earlier);
+      expect(replay.walk.record[0]).not.toBe(walked.walk.record[0]);
+    }
+    expect(walked.state.ending?.id).toBe('statorFaulty');
+  });
+
+  it('a row that goes back on the path is walked by a replay, and the walk it went on from is left as it was', () => {
+    const rows = answerAll(toCoilSecondary.slice(0, 3));
+    const walked = walkRows(noSpark, rows);
+    const current = walked.state.current?.id;
+    const all = [...rows, row('sparkTest', afterFor(walked.path, 1), { answerId: 'strong', acknowledged: true })];
+    expect(walkRows(noSpark, all, walked).state).toEqual(walkRows(noSpark, all).state);
+    expect(walkRows(noSpark, all, walked).state.ending?.id).toBe('sparkGood');
+    expect(walked.state.current?.id).toBe(current);
+  });
 });

@@ -16,6 +16,8 @@ const RUNS = Number(process.env.PERF_RUNS ?? 3);
 /** PERF_SPLIT=1 prints, per tap, when the answer handler ran, the write began and ended, and the title changed (ms after the tap). */
 /** PERF_PROFILE=1 writes a CPU profile of the first walk at each rate to .tmp/prof/ (open it in Chromium's DevTools). */
 const PROFILE = process.env.PERF_PROFILE ? '.tmp/prof' : '';
+/** PERF_TRACE=1 records a Chromium trace of the first walk at each rate and prints where each tap's main-thread time went. */
+const TRACE = Boolean(process.env.PERF_TRACE);
 const LAUNCH_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 
 async function startServer(): Promise<ChildProcess> {
@@ -46,7 +48,7 @@ async function startServer(): Promise<ChildProcess> {
  * on a busy machine the gap between them is the harness's, not the app's.
  */
 const TAP_CLOCK = `(() => {
-  const mark = () => { window.__tapAt = performance.now(); };
+  const mark = () => { window.__tapAt = performance.now(); performance.mark('bench:tap'); };
   document.addEventListener('touchend', mark, { capture: true, passive: true });
 })()`;
 
@@ -60,6 +62,7 @@ const UNTIL_NEXT_TITLE = (before: string) => `new Promise((resolve) => {
   const done = () => { window.__titleAt = performance.now(); requestAnimationFrame(() => {
     const ch = new MessageChannel();
     ch.port1.onmessage = () => {
+      performance.mark('bench:painted');
       const at = (name) => { const m = performance.getEntriesByName(name, 'mark').at(-1); return m && m.startTime > window.__tapAt ? (m.startTime - window.__tapAt).toFixed(1) : '-'; };
       window.__split = 'answer ' + at('bench:answer') + ' keep ' + at('bench:keep') + ' kept ' + at('bench:kept') + ' title ' + (window.__titleAt - window.__tapAt).toFixed(1);
       resolve(performance.now() - window.__tapAt);
@@ -129,6 +132,42 @@ async function oneWalk(page: Page, vehicleId: string): Promise<{ start: number; 
   return { start: start.ms, moves };
 }
 
+const TRACE_CATEGORIES = ['devtools.timeline', 'blink.user_timing'];
+interface TraceEvent { name: string; ph: string; ts: number; dur?: number; pid: number; tid: number; args?: { name?: string } }
+
+/**
+ * Per tap, the renderer main thread's time between the tap and the painted frame, by kind of work
+ * (top-level trace events only, so nothing is counted twice), and the time it stood idle.
+ */
+function printTrace(buffer: Buffer): void {
+  const events = (JSON.parse(buffer.toString('utf8')) as { traceEvents: TraceEvent[] }).traceEvents;
+  const main = events.find((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain' && events.some((m) => m.pid === e.pid && m.name === 'bench:tap'));
+  if (!main) { console.log('    (no renderer main thread in the trace)'); return; }
+  const mine = events.filter((e) => e.pid === main.pid && e.tid === main.tid);
+  const marks = (name: string) => mine.filter((e) => e.name === name).map((e) => e.ts).sort((a, b) => a - b);
+  const taps = marks('bench:tap');
+  const painted = marks('bench:painted');
+  const work = mine.filter((e) => e.ph === 'X' && e.dur !== undefined && e.name !== 'RunTask' && e.name !== 'ThreadControllerImpl::RunTask');
+  const kind = (n: string) => (/Layout|UpdateLayoutTree|RecalculateStyles|ParseAuthorStyleSheet|HitTest/.test(n) ? n.replace('UpdateLayoutTree', 'Style') : /Paint|Layerize|Commit|Composite|PrePaint|Rasterize/.test(n) ? 'Paint' : /FunctionCall|EventDispatch|TimerFire|FireAnimationFrame|EvaluateScript|v8|RunMicrotasks|XHR|Handle/.test(n) ? 'Script' : n);
+  for (const tap of taps) {
+    const end = painted.find((t) => t > tap);
+    if (end === undefined) continue;
+    const by = new Map<string, number>();
+    let covered = 0;
+    let last = tap;
+    for (const e of work.filter((w) => w.ts < end && w.ts + w.dur! > tap).sort((a, b) => a.ts - b.ts)) {
+      if (e.ts + e.dur! <= last) continue; // nested in one already counted
+      const from = Math.max(e.ts, last, tap);
+      const to = Math.min(e.ts + e.dur!, end);
+      by.set(kind(e.name), (by.get(kind(e.name)) ?? 0) + (to - from) / 1000);
+      covered += (to - from) / 1000;
+      last = to;
+    }
+    const parts = [...by].sort((a, b) => b[1] - a[1]).slice(0, 5).map(([k, v]) => `${k} ${v.toFixed(1)}`).join(', ');
+    console.log(`      trace ${((end - tap) / 1000).toFixed(1)} ms: ${parts}; idle ${((end - tap) / 1000 - covered).toFixed(1)}`);
+  }
+}
+
 const quantile = (xs: number[], q: number) => {
   // Hyndman & Fan type 7 (linear between order statistics), as elsewhere in the project.
   const s = [...xs].sort((a, b) => a - b);
@@ -161,6 +200,7 @@ async function main() {
       console.log(`\nCPU throttling ${rate}× — ${RUNS} walks of "No spark" (${WALK.length} transitions each)`);
       for (let run = 1; run <= RUNS; run++) {
         const profiling = PROFILE && run === 1;
+        if (TRACE && run === 1) await browser.startTracing(page, { categories: TRACE_CATEGORIES });
         if (profiling) { await cdp.send('Profiler.enable'); await cdp.send('Profiler.setSamplingInterval', { interval: 100 }); await cdp.send('Profiler.start'); }
         const { start, moves } = await oneWalk(page, vehicle.id);
         if (profiling) {
@@ -169,6 +209,7 @@ async function main() {
           writeFileSync(`${PROFILE}/walk-${rate}x.cpuprofile`, JSON.stringify(profile));
           console.log(`  (CPU profile of walk 1 in ${PROFILE}/walk-${rate}x.cpuprofile)`);
         }
+        if (TRACE && run === 1) printTrace(await browser.stopTracing());
         starts.push(start);
         all.push(...moves.map((m) => m.ms));
         console.log(`  walk ${run}: "Start the diagnosis" → first step ${ms(start)}`);

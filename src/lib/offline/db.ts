@@ -57,6 +57,8 @@ interface BenchDb extends DBSchema {
 }
 
 let dbPromise: Promise<IDBPDatabase<BenchDb>> | null = null;
+/** The database once open, so a write can begin in the task of the tap that asked for it. */
+let opened: IDBPDatabase<BenchDb> | null = null;
 
 /** The Bench database on this phone (IndexedDB through idb). */
 export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
@@ -71,7 +73,7 @@ export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
       if (!has('aside')) db.createObjectStore('aside', { keyPath: 'seq' }).createIndex('byDiagnosis', 'diagnosisId');
       if (!has('pictures')) db.createObjectStore('pictures', { keyPath: 'id' });
     },
-  });
+  }).then((db) => (opened = db));
   return dbPromise;
 }
 
@@ -126,34 +128,52 @@ export function onStorageResult(listener: StorageListener): () => void {
 /**
  * Keeps the diagnosis and its messages in one transaction. A failed write throws a
  * PhoneStorageError and tells onStorageResult's listeners, so the screen says so.
+ *
+ * Once the database is open, the transaction is opened, every request handed to IndexedDB and the
+ * commit asked for before this returns, in the caller's task: a screen may then show the next step
+ * at once, and the answer survives a reload right after the tap (tests/e2e/bench-durable.spec.ts).
+ * Asking for the commit matters: Chromium drops a transaction still open when the page goes away.
  */
-export async function commitLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
+export function commitLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
+  let written: Promise<void>;
   try {
-    await writeLocal(diagnosis, messages);
+    written = opened ? writeLocal(opened, diagnosis, messages) : benchDb().then((db) => writeLocal(db, diagnosis, messages));
   } catch (e) {
-    const problem = new PhoneStorageError(e);
-    for (const l of storageListeners) l(problem.message);
-    throw problem;
+    written = Promise.reject(e); // db.transaction throws at once when the connection is closing
   }
-  for (const l of storageListeners) l(null);
+  return written.then(
+    () => { for (const l of storageListeners) l(null); },
+    (e: unknown) => {
+      const problem = new PhoneStorageError(e);
+      for (const l of storageListeners) l(problem.message);
+      throw problem;
+    },
+  );
 }
 
-async function writeLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
-  const db = await benchDb();
+/**
+ * One transaction whose every request is issued at once, then committed without waiting for a
+ * result: on a phone each wait is a trip through the event loop. A diagnosis set aside after a
+ * refusal then moves the new messages aside in a second transaction (a reload between the two
+ * leaves them in the outbox, where the server refuses them again and they can be set aside again:
+ * nothing is lost).
+ */
+async function writeLocal(db: IDBPDatabase<BenchDb>, diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
   const tx = db.transaction(['diagnoses', 'outbox', 'aside'], 'readwrite');
   const now = new Date().toISOString();
-  // Every request goes out at once, without waiting for the one before: on a phone each wait is a
-  // trip through the event loop, and the technician waits for the whole transaction.
-  const puts: Promise<unknown>[] = [tx.objectStore('diagnoses').put({ ...diagnosis, updatedAt: now })];
+  const kept = tx.objectStore('diagnoses').put({ ...diagnosis, updatedAt: now });
   const items = messages.map((message) => ({ diagnosisId: diagnosis.id, message, createdAt: now }));
   const seqs = items.map((item) => tx.objectStore('outbox').add(item));
   const asideCount = messages.length ? tx.objectStore('aside').index('byDiagnosis').count(diagnosis.id) : Promise.resolve(0);
-  if ((await asideCount) > 0) {
-    // Set aside: the outbox's key generator still gives the seq, so the two stores never clash.
-    for (const [i, item] of items.entries()) {
-      const seq = await seqs[i]!;
-      puts.push(tx.objectStore('outbox').delete(seq), tx.objectStore('aside').put({ ...item, seq, setAsideAt: now }));
-    }
-  }
-  await Promise.all([...puts, ...seqs, tx.done]);
+  tx.commit();
+  const [, seqList, count] = await Promise.all([kept, Promise.all(seqs), asideCount, tx.done]);
+  if (count > 0) await moveAside(db, items.map((item, i) => ({ ...item, seq: seqList[i]!, setAsideAt: now })));
+}
+
+/** Moves just-queued messages of a set-aside diagnosis from the outbox to `aside`, under their outbox seq. */
+async function moveAside(db: IDBPDatabase<BenchDb>, items: AsideItem[]): Promise<void> {
+  const tx = db.transaction(['outbox', 'aside'], 'readwrite');
+  // The outbox's key generator gave the seq, so the two stores never clash.
+  for (const item of items) void Promise.all([tx.objectStore('outbox').delete(item.seq), tx.objectStore('aside').put(item)]).catch(() => undefined);
+  await tx.done;
 }

@@ -125,7 +125,7 @@ export function DiagnosisScreen() {
         <StepCard key={stepKey} view={currentView} step={currentStep} values={state.values} remeasure={!editPath && state.remeasure}
           remeasured={editPath ? 0 : remeasuredAt(state.path, currentView.id)}
           extras={(note, setNote) => <NoteAndPhotos note={note} setNote={setNote} photos={photosHere} onAdd={(f) => d.addPhoto(f, currentView.id)} />}
-          onAnswer={async (a) => { await d.answer({ ...a, startedAt }, editing ?? undefined); setEditing(null); }} />
+          onAnswer={(a) => { setEditing(null); return d.answer({ ...a, startedAt }, editing ?? undefined); }} />
       )}
 
       {!editPath && state.status === 'ended' && state.ending && d.diagnosis.status === 'active' && (

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { memo, useState } from 'react';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { PathStep } from '@shared/engine/walk';
 import type { LocaleFormat } from '@shared/format/locale';
@@ -23,6 +23,23 @@ function answerText(doc: ProcedureDocument, p: PathStep, fmt: LocaleFormat): str
 }
 
 /**
+ * One step of the path. Memoised: the walk goes on from the last step, so the steps before keep
+ * their objects and a tap draws only the new one.
+ */
+const PathItem = memo(function PathItem({ doc, fmt, step: p, place: i, change }: { doc: ProcedureDocument; fmt: LocaleFormat; step: PathStep; place: number; change: ((i: number) => void) | null }) {
+  const title = doc.steps.find((s) => s.id === p.stepId)?.title ?? p.stepId;
+  return (
+    <li className="flex items-center gap-3 rounded-lg border border-line bg-panel p-2">
+      <span className="flex h-8 w-8 shrink-0 items-center justify-center rounded-full bg-ink text-base font-bold text-white">{i + 1}</span>
+      <span className="min-w-0 flex-1"><span className="block font-semibold">{title}</span><span className="block text-ink-soft">{answerText(doc, p, fmt)}</span></span>
+      {change && (
+        <button type="button" onClick={() => change(i)} className="min-h-12 min-w-20 rounded-lg border-2 border-ink px-3 font-semibold" aria-label={`Change ${title}`}>Change</button>
+      )}
+    </li>
+  );
+});
+
+/**
  * The path so far. Going back sits behind one control, so a gloved tap near the main button never
  * reopens a step; once the diagnosis has ended (`closed`) nothing can be changed from here.
  */
@@ -32,22 +49,12 @@ export function PathList({ doc, path, closed, onChange }: { doc: ProcedureDocume
   const shown = path.filter((p) => p.outcome !== 'ended');
   if (!shown.length) return null;
   const changeable = !closed && shown.some((p) => p.entryIndex !== null);
+  const choose = (i: number) => { setChoosing(false); onChange(i); };
   return (
     <section aria-labelledby="path-title" className="space-y-2">
       <h2 id="path-title" className="text-xl font-bold">Steps so far</h2>
       <ol className="space-y-2">
-        {shown.map((p, i) => {
-          const title = doc.steps.find((s) => s.id === p.stepId)?.title ?? p.stepId;
-          return (
-            <li key={i} className="flex items-center gap-3 rounded-lg border border-line bg-panel p-2">
-              <span className="flex h-8 w-8 shrink-0 items-center justify-center rounded-full bg-ink text-base font-bold text-white">{i + 1}</span>
-              <span className="min-w-0 flex-1"><span className="block font-semibold">{title}</span><span className="block text-ink-soft">{answerText(doc, p, fmt)}</span></span>
-              {choosing && changeable && p.entryIndex !== null && (
-                <button type="button" onClick={() => { setChoosing(false); onChange(i); }} className="min-h-12 min-w-20 rounded-lg border-2 border-ink px-3 font-semibold" aria-label={`Change ${title}`}>Change</button>
-              )}
-            </li>
-          );
-        })}
+        {shown.map((p, i) => <PathItem key={i} doc={doc} fmt={fmt} step={p} place={i} change={choosing && changeable && p.entryIndex !== null ? choose : null} />)}
       </ol>
       {changeable && (
         <button type="button" aria-expanded={choosing} onClick={() => setChoosing(!choosing)}

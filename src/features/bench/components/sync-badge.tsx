@@ -1,4 +1,4 @@
-import { useSyncExternalStore } from 'react';
+import { memo, useSyncExternalStore } from 'react';
 import { sendable, syncStore, type RefusedDiagnosis, type SyncStatus } from '../../../lib/offline/outbox';
 import { cx } from '../../../components/ui/cx';
 import { AsideList, RefusedCard } from './held-diagnoses';
@@ -35,8 +35,9 @@ function SyncPill({ s }: { s: SyncStatus }) {
  * Always on screen: whether every start, step and photo has reached the server, and what to do
  * about a diagnosis the server refused. On a diagnosis screen, `diagnosisId` puts that diagnosis's
  * refusal first and words it as "this diagnosis"; others are named by vehicle and procedure.
+ * Memoised: it follows the sync store, so a step screen drawing the next step need not draw it.
  */
-export function SyncBadge({ diagnosisId }: { diagnosisId?: string }) {
+export const SyncBadge = memo(function SyncBadge({ diagnosisId }: { diagnosisId?: string }) {
   const s = useSyncExternalStore(syncStore.subscribe, syncStore.get);
   const storage = s.storageProblem && <p role="alert" data-testid="storage-problem" className="rounded-lg border-2 border-stop bg-panel p-3 font-semibold text-stop">{s.storageProblem}</p>;
   if (s.refused.length === 0 && s.aside.length === 0 && !storage) return <SyncPill s={s} />;
@@ -50,4 +51,4 @@ export function SyncBadge({ diagnosisId }: { diagnosisId?: string }) {
       {s.aside.length > 0 && <AsideList aside={s.aside} current={diagnosisId} />}
     </div>
   );
-}
+});

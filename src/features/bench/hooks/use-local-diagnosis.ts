@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { flushSync } from 'react-dom';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { BranchCounts } from '@shared/engine/figures';
@@ -57,6 +57,9 @@ function answerRow(a: Answer, path: Walked['path'], at: number, now: string): Lo
   };
 }
 
+/** The walk of rows an answer just made, so the step screen does not walk them again. */
+const walkedFor = new WeakMap<readonly LocalRow[], Walked>();
+
 /**
  * Runs `fn` once the frame with the next step has been painted: sending starts with IndexedDB
  * reads and a request, which would otherwise delay that frame on a slow phone.
@@ -66,34 +69,60 @@ function afterNextPaint(fn: () => void): void {
   requestAnimationFrame(() => setTimeout(fn, 0));
 }
 
-/** A diagnosis read from and written to the phone; the outbox carries each change to the server. */
+/**
+ * A diagnosis read from and written to the phone; the outbox carries each change to the server.
+ *
+ * An answer shows the next step in the task of the tap: the write's transaction is opened and all
+ * its requests handed to IndexedDB first, in that same task, so the answer is on its way to the
+ * phone's storage before the step changes and survives a reload right after the tap
+ * (tests/e2e/bench-durable.spec.ts). Should the write fail, the screen goes back to the step
+ * before it and says why; an answer tapped while a write is still being kept waits for it, so an
+ * answer never lands on a step whose own answer the phone refused.
+ */
 export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
   const { diagnosis, setDiagnosis, doc, branchCounts, error, loading } = useStoredDiagnosis(id);
-  const walked = useMemo(() => (doc && diagnosis ? walkRows(doc, diagnosis.rows) : null), [doc, diagnosis]);
+  const walked = useMemo(() => (doc && diagnosis ? walkedFor.get(diagnosis.rows) ?? walkRows(doc, diagnosis.rows) : null), [doc, diagnosis]);
+  /** The write still being kept, if any: resolves true once kept, false when the phone refused it. */
+  const keeping = useRef<Promise<boolean> | null>(null);
 
-  const save = useCallback(async (next: LocalDiagnosis, messages: OutboxMessage[]) => {
+  const save = useCallback((before: LocalDiagnosis, next: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> => {
     performance.mark('bench:keep');
-    await commitLocal(next, messages); // on the phone before the next step shows
-    performance.mark('bench:kept');
-    // Rendered at once, not in a later scheduler task: the next step is the only thing to do now.
+    const kept = commitLocal(next, messages); // every request issued, in this task
+    // Drawn now, in this task: the next step is the only thing to do now. Updates the caller queued
+    // before (the screen leaving "change an earlier answer") are drawn in the same render.
     flushSync(() => setDiagnosis(next));
-    afterNextPaint(() => void flushOutbox());
+    const settled = kept.then(() => true, () => false);
+    keeping.current = settled;
+    void settled.then(() => { if (keeping.current === settled) keeping.current = null; });
+    return kept.then(() => {
+      performance.mark('bench:kept');
+      afterNextPaint(() => void flushOutbox());
+    }, (e: unknown) => {
+      setDiagnosis(before); // not kept: back to the step, with the storage problem on screen
+      throw e;
+    });
   }, [setDiagnosis]);
 
   const answer = useCallback(async (a: Answer, index?: number) => {
     if (!doc || !diagnosis || !walked) return;
+    // Only while the last write is still being kept (a few ms): a refused one puts its step back.
+    if (keeping.current && !(await keeping.current)) return;
     const now = new Date().toISOString();
     const row = answerRow(a, walked.path, index ?? walked.path.length, now);
     const rows = [...diagnosis.rows, row];
-    const computed = formulaRows(doc, rows, now);
-    await save({ ...diagnosis, rows: [...rows, ...computed] }, [row, ...computed].map((body) => ({ kind: 'step', body })));
+    const onward = walkRows(doc, rows, walked);
+    const computed = formulaRows(doc, rows, now, onward);
+    const all = [...rows, ...computed];
+    walkedFor.set(all, walkRows(doc, all, onward)); // the screen draws it without walking again
+    await save(diagnosis, { ...diagnosis, rows: all }, [row, ...computed].map((body) => ({ kind: 'step', body })));
   }, [doc, diagnosis, walked, save]);
 
   const finish = useCallback(async (stepId: string, outcome: EndingOutcome, note: string, startedAt: string) => {
     if (!doc || !diagnosis || !walked) return;
+    if (keeping.current && !(await keeping.current)) return;
     const step = doc.steps.find((s) => s.id === stepId);
     const row: LocalRow = { id: crypto.randomUUID(), stepId, after: afterFor(walked.path, walked.path.length), note, outcome, startedAt, answeredAt: new Date().toISOString() };
-    await save({ ...diagnosis, rows: [...diagnosis.rows, row], status: step?.kind === 'handoff' ? 'handed_off' : 'finished' }, [{ kind: 'step', body: row }]);
+    await save(diagnosis, { ...diagnosis, rows: [...diagnosis.rows, row], status: step?.kind === 'handoff' ? 'handed_off' : 'finished' }, [{ kind: 'step', body: row }]);
   }, [doc, diagnosis, walked, save]);
 
   const addPhoto = useCallback(async (file: File, stepId: string | null) => {
@@ -102,7 +131,7 @@ export function useLocalDiagnosis(id: string): LocalDiagnosisApi {
     const photoId = crypto.randomUUID();
     const name = file.name.replace(/^.*[\\/]/, '') || 'photo.jpg';
     const next = { ...diagnosis, photos: [...diagnosis.photos, { id: photoId, stepId, name, thumbUrl: thumb?.dataUrl ?? '' }] };
-    await save(next, [{ kind: 'photo', id: photoId, stepId, name, photo: file, thumb: thumb?.blob ?? null }]);
+    await save(diagnosis, next, [{ kind: 'photo', id: photoId, stepId, name, photo: file, thumb: thumb?.blob ?? null }]);
   }, [diagnosis, save]);
 
   return { loading, error, diagnosis, doc, branchCounts, walked, answer, finish, addPhoto };

@@ -1,4 +1,4 @@
-import { walkProcedure, type WalkEntry, type WalkState } from '@shared/engine/walk';
+import { ProcedureWalk, type WalkEntry, type WalkState } from '@shared/engine/walk';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import { walkEntryOf } from '@shared/engine/step-entry';
 import type { LocalRow } from '../../../lib/offline/db';
@@ -17,19 +17,55 @@ export function pathRows(rows: readonly LocalRow[]): LocalRow[] {
 
 const entryOf = (doc: ProcedureDocument, row: LocalRow): WalkEntry | null => walkEntryOf(doc.steps.find((s) => s.id === row.stepId), row);
 
-export interface Walked { state: WalkState; path: LocalRow[] }
+export interface Walked {
+  state: WalkState;
+  path: LocalRow[];
+  /** The rows walked, and the walk standing after them: a later answer goes on from here. */
+  rows: readonly LocalRow[];
+  walk: ProcedureWalk;
+}
 
-/** Where the diagnosis stands, by the shared walker over the answers on the current path. */
-export function walkRows(doc: ProcedureDocument, rows: readonly LocalRow[]): Walked {
+/**
+ * Goes on from `from` when `rows` only adds answers at the end of its path (the common tap):
+ * one walker step per new row instead of a replay from the start. Null when it cannot.
+ */
+function walkOn(doc: ProcedureDocument, rows: readonly LocalRow[], from: Walked): Walked | null {
+  if (rows === from.rows && from.walk.doc === doc) return from;
+  if (from.walk.doc !== doc || from.walk.problem?.code === 'no-start' || rows.length < from.rows.length) return null;
+  for (let i = 0; i < from.rows.length; i++) if (rows[i] !== from.rows[i]) return null;
+  const path = [...from.path];
+  const walk = from.walk.fork();
+  for (const row of rows.slice(from.rows.length)) {
+    if (row.after !== (path[path.length - 1]?.id ?? null)) return null; // going back: replay
+    path.push(row);
+    const entry = entryOf(doc, row);
+    if (entry) walk.take(entry);
+  }
+  return { state: walk.state(), path, rows, walk };
+}
+
+/**
+ * Where the diagnosis stands, by the shared walker over the answers on the current path. With
+ * `from` (the walk of fewer rows) a tap costs one walker step; the result is the same as a replay.
+ */
+export function walkRows(doc: ProcedureDocument, rows: readonly LocalRow[], from?: Walked | null): Walked {
+  const on = from ? walkOn(doc, rows, from) : null;
+  if (on) return on;
   const path = pathRows(rows);
-  const entries = path.map((r) => entryOf(doc, r)).filter((e): e is WalkEntry => e !== null);
-  return { state: walkProcedure(doc, entries), path };
+  const walk = ProcedureWalk.start(doc);
+  if (walk.problem?.code !== 'no-start') {
+    for (const r of path) {
+      const entry = entryOf(doc, r);
+      if (entry) walk.take(entry);
+    }
+  }
+  return { state: walk.state(), path, rows, walk };
 }
 
 /** Rows for the Formula steps the walker computed past the last row, so the server records them too. */
-export function formulaRows(doc: ProcedureDocument, rows: readonly LocalRow[], now: string): LocalRow[] {
+export function formulaRows(doc: ProcedureDocument, rows: readonly LocalRow[], now: string, from?: Walked | null): LocalRow[] {
   const added: LocalRow[] = [];
-  const { state, path } = walkRows(doc, rows);
+  const { state, path } = walkRows(doc, rows, from);
   let last = path[path.length - 1]?.id ?? null;
   for (let i = path.length; i < state.path.length; i++) {
     const p = state.path[i]!;
