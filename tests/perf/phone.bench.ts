@@ -149,9 +149,10 @@ function printTrace(buffer: Buffer): void {
   const painted = marks('bench:painted');
   const work = mine.filter((e) => e.ph === 'X' && e.dur !== undefined && e.name !== 'RunTask' && e.name !== 'ThreadControllerImpl::RunTask');
   const kind = (n: string) => (/Layout|UpdateLayoutTree|RecalculateStyles|ParseAuthorStyleSheet|HitTest/.test(n) ? n.replace('UpdateLayoutTree', 'Style') : /Paint|Layerize|Commit|Composite|PrePaint|Rasterize/.test(n) ? 'Paint' : /FunctionCall|EventDispatch|TimerFire|FireAnimationFrame|EvaluateScript|v8|RunMicrotasks|XHR|Handle/.test(n) ? 'Script' : n);
-  for (const tap of taps) {
-    const end = painted.find((t) => t > tap);
-    if (end === undefined) continue;
+  for (const end of painted) {
+    // The tap that led to this frame: the last before it (an acknowledgement or keypad tap before is not timed).
+    const tap = taps.filter((t) => t < end).at(-1);
+    if (tap === undefined) continue;
     const by = new Map<string, number>();
     let covered = 0;
     let last = tap;

@@ -77,11 +77,26 @@ export function benchDb(): Promise<IDBPDatabase<BenchDb>> {
   return dbPromise;
 }
 
+/**
+ * The diagnosis this tab kept last and the versions it saved or read: a screen opened right after
+ * a start or an answer draws from here instead of waiting for IndexedDB (see peekKept).
+ */
+let lastKept: LocalDiagnosis | null = null;
+const versionsSeen = new Map<string, LocalVersion>();
+const seen = (v: LocalVersion | undefined) => { if (v) versionsSeen.set(v.id, v); return v; };
+
+/** The diagnosis as this tab last kept it on the phone, with its version, if both are at hand. */
+export function peekKept(id: string): { diagnosis: LocalDiagnosis; version: LocalVersion } | null {
+  const version = lastKept?.id === id ? versionsSeen.get(lastKept.versionId) : undefined;
+  return lastKept && version ? { diagnosis: lastKept, version } : null;
+}
+
 export async function saveVersion(v: LocalVersion): Promise<void> {
   await (await benchDb()).put('versions', v);
+  seen(v);
 }
 export async function getVersion(id: string): Promise<LocalVersion | undefined> {
-  return (await benchDb()).get('versions', id);
+  return seen(await (await benchDb()).get('versions', id));
 }
 /** The newest version of a procedure kept on this phone, by the procedure's slug. */
 export async function findVersionBySlug(slug: string): Promise<LocalVersion | undefined> {
@@ -161,12 +176,14 @@ export function commitLocal(diagnosis: LocalDiagnosis, messages: OutboxMessage[]
 async function writeLocal(db: IDBPDatabase<BenchDb>, diagnosis: LocalDiagnosis, messages: OutboxMessage[]): Promise<void> {
   const tx = db.transaction(['diagnoses', 'outbox', 'aside'], 'readwrite');
   const now = new Date().toISOString();
-  const kept = tx.objectStore('diagnoses').put({ ...diagnosis, updatedAt: now });
+  const stored = { ...diagnosis, updatedAt: now };
+  const kept = tx.objectStore('diagnoses').put(stored);
   const items = messages.map((message) => ({ diagnosisId: diagnosis.id, message, createdAt: now }));
   const seqs = items.map((item) => tx.objectStore('outbox').add(item));
   const asideCount = messages.length ? tx.objectStore('aside').index('byDiagnosis').count(diagnosis.id) : Promise.resolve(0);
   tx.commit();
   const [, seqList, count] = await Promise.all([kept, Promise.all(seqs), asideCount, tx.done]);
+  lastKept = stored;
   if (count > 0) await moveAside(db, items.map((item, i) => ({ ...item, seq: seqList[i]!, setAsideAt: now })));
 }
 

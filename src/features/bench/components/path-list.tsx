@@ -51,7 +51,8 @@ export function PathList({ doc, path, closed, onChange }: { doc: ProcedureDocume
   const changeable = !closed && shown.some((p) => p.entryIndex !== null);
   const choose = (i: number) => { setChoosing(false); onChange(i); };
   return (
-    <section aria-labelledby="path-title" className="space-y-2">
+    // Below the step on a phone: skipped by layout and paint until scrolled near (drawing the next step costs less).
+    <section aria-labelledby="path-title" className="space-y-2 [contain-intrinsic-size:auto_30rem] [content-visibility:auto]">
       <h2 id="path-title" className="text-xl font-bold">Steps so far</h2>
       <ol className="space-y-2">
         {shown.map((p, i) => <PathItem key={i} doc={doc} fmt={fmt} step={p} place={i} change={choosing && changeable && p.entryIndex !== null ? choose : null} />)}

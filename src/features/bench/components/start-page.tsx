@@ -69,6 +69,7 @@ export function StartPage() {
   const { may } = useSession();
   const vehicles = useQuery(benchQueries.vehicles());
   const meters = useQuery(benchQueries.meters());
+  const procedures = useQuery(benchQueries.procedures());
   const [form, setForm] = useState<StartForm>({
     slug: params.get('procedure') ?? '', vehicleId: params.get('vehicle') ?? '', meterId: '', complaint: '',
     engine: 'cold', ambientC: '20', startingMethod: 'kick', batteryVolts: '',
@@ -81,7 +82,8 @@ export function StartPage() {
     e.preventDefault();
     setError(null);
     try {
-      const id = await startDiagnosis(form, vehicles.data?.find((v) => v.id === form.vehicleId), meters.data?.find((m) => m.id === meterId));
+      const listed = procedures.data?.find((p) => p.slug === form.slug)?.versionId;
+      const id = await startDiagnosis(form, vehicles.data?.find((v) => v.id === form.vehicleId), meters.data?.find((m) => m.id === meterId), listed);
       navigate(`/bench/d/${id}`);
     } catch (err) {
       if (err instanceof ApiError) setError(err.message + (err.issues.length ? ` (${err.issues.map((i) => i.message).join('; ')})` : ''));

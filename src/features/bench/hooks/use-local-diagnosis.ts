@@ -3,7 +3,7 @@ import { flushSync } from 'react-dom';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import type { BranchCounts } from '@shared/engine/figures';
 import type { EndingOutcome } from '@shared/schema/bench';
-import { commitLocal, getLocalDiagnosis, getVersion, type LocalDiagnosis, type LocalRow, type OutboxMessage } from '../../../lib/offline/db';
+import { commitLocal, getLocalDiagnosis, getVersion, peekKept, type LocalDiagnosis, type LocalRow, type OutboxMessage } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
 import { afterFor, formulaRows, walkRows, withMeter, type Walked } from '../lib/walk-rows';
 import { makeThumbnail } from '../lib/thumbnail';
@@ -25,18 +25,33 @@ export interface LocalDiagnosisApi {
   addPhoto(file: File, stepId: string | null): Promise<void>;
 }
 
-/** Reads the diagnosis and its procedure version from the phone (no network). */
+/** The diagnosis this tab has just kept and its version, ready to draw without waiting for IndexedDB. */
+function fromMemory(id: string) {
+  const k = peekKept(id);
+  return k ? { diagnosis: k.diagnosis, doc: withMeter(k.version.document as ProcedureDocument, k.diagnosis.meterEntries), branchCounts: k.version.branchCounts ?? {} } : null;
+}
+
+/**
+ * Reads the diagnosis and its procedure version from the phone (no network). Just started or
+ * answered in this tab, it is drawn at once from memory, then read again in case another tab
+ * went on with it (a read never undoes an answer given here meanwhile).
+ */
 function useStoredDiagnosis(id: string) {
-  const [diagnosis, setDiagnosis] = useState<LocalDiagnosis | null>(null);
-  const [doc, setDoc] = useState<ProcedureDocument | null>(null);
-  const [branchCounts, setBranchCounts] = useState<BranchCounts>({});
+  const [first] = useState(() => fromMemory(id));
+  const [diagnosis, setDiagnosis] = useState<LocalDiagnosis | null>(first?.diagnosis ?? null);
+  const [doc, setDoc] = useState<ProcedureDocument | null>(first?.doc ?? null);
+  const [branchCounts, setBranchCounts] = useState<BranchCounts>(first?.branchCounts ?? {});
   const [error, setError] = useState<string | null>(null);
-  const [loading, setLoading] = useState(true);
+  const [loading, setLoading] = useState(first === null);
   useEffect(() => {
     let live = true;
     (async () => {
       const d = await getLocalDiagnosis(id);
       if (!d) throw new Error('This diagnosis is not on this phone. Open it from the Bench home, or start a new one.');
+      if (first?.diagnosis.id === id) {
+        if (live) setDiagnosis((shown) => (shown?.id === id && shown.rows.length >= d.rows.length ? shown : d));
+        return;
+      }
       const v = await getVersion(d.versionId);
       // The server sends the document already upgraded and parsed; checking it again here would
       // put the schema library into the phone's first download.
@@ -44,7 +59,7 @@ function useStoredDiagnosis(id: string) {
       if (live) { setDiagnosis(d); setDoc(withMeter(v.document as ProcedureDocument, d.meterEntries)); setBranchCounts(v.branchCounts ?? {}); }
     })().catch((e: unknown) => live && setError(e instanceof Error ? e.message : String(e))).finally(() => live && setLoading(false));
     return () => { live = false; };
-  }, [id]);
+  }, [id, first]);
   return { diagnosis, setDiagnosis, doc, branchCounts, error, loading };
 }
 

@@ -1,5 +1,5 @@
 import { api } from '../../../lib/api-client';
-import { commitLocal, findVersionBySlug, type LocalVersion } from '../../../lib/offline/db';
+import { commitLocal, findVersionBySlug, getVersion, type LocalVersion } from '../../../lib/offline/db';
 import { flushOutbox } from '../../../lib/offline/outbox';
 import type { Conditions, StartDiagnosisBody } from '@shared/schema/bench';
 import type { MeterDto } from '@shared/schema/shop';
@@ -13,8 +13,18 @@ export interface StartForm {
 
 const decimal = (s: string) => Number(s.replace(',', '.'));
 
-/** The latest published version, from the server with signal, else the one kept on the phone. */
-async function versionFor(slug: string): Promise<LocalVersion> {
+/**
+ * The version to start on. The one the start page's list names, when the phone keeps it already:
+ * a published version never changes, so there is nothing to wait for (its branch frequencies are
+ * fetched again once the first step is up, for the next start). Else the latest published
+ * version from the server, and without signal the one kept on the phone.
+ */
+async function versionFor(slug: string, listedVersionId: string | undefined): Promise<LocalVersion> {
+  const kept = listedVersionId ? await getVersion(listedVersionId) : undefined;
+  if (kept) {
+    setTimeout(() => void fetchVersion(slug).catch(() => undefined), 2000);
+    return kept;
+  }
   try {
     return await fetchVersion(slug);
   } catch (e) {
@@ -32,10 +42,10 @@ async function versionFor(slug: string): Promise<LocalVersion> {
  * Starts a diagnosis and keeps it in IndexedDB. With signal the server checks the start first, so
  * a mistake shows here rather than blocking the outbox later. Without signal the start waits in
  * the outbox ahead of the steps, and the diagnosis runs on the version kept on the phone.
- * Returns the new diagnosis id.
+ * `listedVersionId` is the version the procedure list names. Returns the new diagnosis id.
  */
-export async function startDiagnosis(form: StartForm, vehicle: VehicleDto | undefined, meter: MeterDto | undefined): Promise<string> {
-  const version = await versionFor(form.slug);
+export async function startDiagnosis(form: StartForm, vehicle: VehicleDto | undefined, meter: MeterDto | undefined, listedVersionId?: string): Promise<string> {
+  const version = await versionFor(form.slug, listedVersionId);
   const id = crypto.randomUUID();
   const now = new Date().toISOString();
   const body: StartDiagnosisBody = {
