@@ -1,6 +1,7 @@
 import { buildGraph, depthFirst, isBackEdge } from '@shared/engine';
 import { handleCount, handleOffset, stepBox } from '@shared/engine/geometry';
-import { branchesOf, type ProcedureDocument, type Step } from '@shared/schema';
+import type { ProcedureDocument, Step } from '@shared/schema';
+import { branchesOf } from '@shared/engine/kinds';
 
 const ROW_GAP = 70;
 const COLUMN_GAP = 50;

@@ -1,5 +1,5 @@
 import type { Band, ProcedureDocument, Step, StepId } from '@shared/schema/procedure';
-import { branchesOf, isEnding, type Branch } from '@shared/schema/branches';
+import { branchesOf, isEnding, type Branch } from '@shared/engine/kinds';
 import { resolveLimits } from '@shared/measure/verdict';
 import { bandContains } from '@shared/measure/bands';
 import { formatReading } from '@shared/measure/format';

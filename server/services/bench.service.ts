@@ -4,7 +4,7 @@ import type { ProcedureDocument, Step } from '@shared/schema/procedure';
 import type { BenchProcedure, BenchVersion } from '@shared/schema/bench';
 import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
-import { recordedHandle } from '@shared/schema/branches';
+import { recordedHandle } from '@shared/engine/kinds';
 
 export interface PinnedVersion {
   id: string;

@@ -6,11 +6,11 @@ import { AppError, badRequest, conflict, notFound } from '../lib/errors';
 import { demand } from '../auth/policy';
 import { adviseChain, findCheckChains, reorderChain, type CheckChain } from '@shared/engine/advisor';
 import { lintProcedure } from '@shared/engine/lint';
-import { branchesOf } from '@shared/schema/branches';
+import { branchesOf } from '@shared/engine/kinds';
 import type { ProcedureDocument } from '@shared/schema';
 import type { AdvisorAnswer, AdvisorChain, AdvisorCheck, AdvisorDraftBody } from '@shared/stats/debrief-schema';
 import { audit } from './audit';
-import { recordedHandle } from '@shared/schema/branches';
+import { recordedHandle } from '@shared/engine/kinds';
 import { SCOPED, STEP_SCOPE, num, numOrNull, parseDocument, scopeBinds, type Scope, type Sql } from './debrief-scope';
 
 // The check-order advisor over recorded diagnoses: each check's share of revealed faults and its

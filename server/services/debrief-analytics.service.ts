@@ -1,6 +1,6 @@
 import { QUANTILE_DEFINITION } from '@shared/stats/quantile';
 import { resolveLimits } from '@shared/measure/verdict';
-import { recordedHandle } from '@shared/schema/branches';
+import { recordedHandle } from '@shared/engine/kinds';
 import type {
   BranchFigure, DiagnosisStatus, FindingsAnalytics, Quart, ReadingFigure, ReadingsAnalytics, StepFigure, StepsAnalytics, TimesAnalytics,
 } from '@shared/stats/debrief-schema';

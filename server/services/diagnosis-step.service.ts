@@ -9,6 +9,8 @@ import { loadPinnedVersion } from './bench.service';
 import { decideStep, withMeter, type MeterEntry, type PathRow } from './diagnosis-decide';
 import type { ProcedureWalk } from '@shared/engine/walk';
 import { FindingOutcomeInput, HandoffOutcomeInput, type DiagnosisStatus, type DiagnosisStepInput, type StepResult } from '@shared/schema/bench';
+import { unknownKind } from '@shared/engine/kinds';
+import type { Step } from '@shared/schema/procedure';
 import { notifyHandoff } from './report.service';
 
 interface Head {
@@ -117,10 +119,14 @@ function keptPath(path: readonly PathRow[], after: string | null): PathRow[] {
   return path.slice(0, i + 1);
 }
 
-function outcomeFor(kind: string, input: DiagnosisStepInput): { endStatus: DiagnosisStatus | null; outcome: string | null } {
-  if (kind === 'finding') return { endStatus: 'finished', outcome: JSON.stringify(parseInput(FindingOutcomeInput, input.outcome ?? {}, 'The finding')) };
-  if (kind === 'handoff') return { endStatus: 'handed_off', outcome: JSON.stringify(parseInput(HandoffOutcomeInput, input.outcome ?? {}, 'The hand-off')) };
-  return { endStatus: null, outcome: null };
+/** What ending the step records: a Finding's or Hand-off's outcome, parsed; nothing for other kinds. */
+function outcomeFor(step: Step, input: DiagnosisStepInput): { endStatus: DiagnosisStatus | null; outcome: string | null } {
+  switch (step.kind) {
+    case 'finding': return { endStatus: 'finished', outcome: JSON.stringify(parseInput(FindingOutcomeInput, input.outcome ?? {}, 'The finding')) };
+    case 'handoff': return { endStatus: 'handed_off', outcome: JSON.stringify(parseInput(HandoffOutcomeInput, input.outcome ?? {}, 'The hand-off')) };
+    case 'reading': case 'observation': case 'task': case 'formula': return { endStatus: null, outcome: null };
+    default: return unknownKind(step);
+  }
 }
 
 async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: string, input: DiagnosisStepInput, head: Head, hash: string) {
@@ -132,7 +138,7 @@ async function decideAndWrite(deps: AppDeps, ctx: ShopContext, diagnosisId: stri
   const keep = keptPath(head.path, input.after);
   const prior = keep.length === head.path.length ? head.walk : undefined;
   const { decided, walk } = decideStep(prior?.doc ?? withMeter(version.document, head.meter ?? []), version.steps, keep, input, prior);
-  const { endStatus, outcome } = outcomeFor(step.kind, input);
+  const { endStatus, outcome } = outcomeFor(step, input);
   const seq = Number(head.max_seq) + 1;
   const goingBack = keep.length < head.path.length;
   const { rows: [written] } = await onPooledClient(deps, (c) => c.query<{ inserted: number }>({

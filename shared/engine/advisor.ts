@@ -1,5 +1,5 @@
 import type { ProcedureDocument, Step, StepId } from '../schema/procedure';
-import { branchesOf } from '../schema/branches';
+import { STEP_TRAITS, branchesOf, retarget } from './kinds';
 
 /**
  * Check-order advisor. A chain is a run of independent checks (Reading or Observation steps)
@@ -17,7 +17,7 @@ export interface CheckChain {
   readonly tail: StepId;
 }
 
-const isCheck = (s: Step) => s.kind === 'reading' || s.kind === 'observation';
+const isCheck = (s: Step) => STEP_TRAITS[s.kind].check;
 
 /** The single pass target of a check whose other branches all end at Findings, else null. */
 function passTarget(step: Step, byId: ReadonlyMap<StepId, Step>): StepId | null {
@@ -122,26 +122,6 @@ export function adviseChain(chain: CheckChain, estimates: readonly CheckEstimate
   };
 }
 
-function repoint(step: Step, from: StepId, to: StepId): Step {
-  const swap = (id: StepId) => (id === from ? to : id);
-  switch (step.kind) {
-    case 'reading':
-      return {
-        ...step,
-        bands: step.bands.map((b) => ({ ...b, next: swap(b.next) })),
-        borderline: step.borderline.action === 'branch' ? { ...step.borderline, next: swap(step.borderline.next) } : step.borderline,
-      };
-    case 'formula':
-      return { ...step, bands: step.bands.map((b) => ({ ...b, next: swap(b.next) })), ...(step.next === undefined ? {} : { next: swap(step.next) }) };
-    case 'observation':
-      return { ...step, answers: step.answers.map((a) => ({ ...a, next: swap(a.next) })) };
-    case 'task':
-      return step.next === undefined ? step : { ...step, next: swap(step.next) };
-    default:
-      return step;
-  }
-}
-
 /**
  * A copy of the document with the chain's checks in `order`: arrivals at the old first check go
  * to the new first, each check passes to the next in the new order, the last passes to the tail;
@@ -155,10 +135,10 @@ export function reorderChain(doc: ProcedureDocument, chain: CheckChain, order: r
   const oldFirst = chain.checks[0]!;
   const newFirst = order[0]!;
   const steps = doc.steps.map((s) => {
-    if (!inChain.has(s.id)) return repoint(s, oldFirst, newFirst);
+    if (!inChain.has(s.id)) return retarget(s, oldFirst, newFirst);
     const i = order.indexOf(s.id);
     const oldPass = chain.checks[chain.checks.indexOf(s.id) + 1] ?? chain.tail;
-    return repoint(s, oldPass, order[i + 1] ?? chain.tail);
+    return retarget(s, oldPass, order[i + 1] ?? chain.tail);
   });
   return { ...doc, start: doc.start === oldFirst ? newFirst : doc.start, steps };
 }

@@ -1,5 +1,5 @@
 import type { ProcedureDocument, Step } from '../schema/procedure';
-import { branchesOf } from '../schema/branches';
+import { STEP_TRAITS, branchesOf } from './kinds';
 import { depthFirst, isBackEdge, stronglyConnected, type DepthFirst } from './algorithms';
 import { buildGraph, type ProcedureGraph } from './graph';
 import { almostSurelyAbsorbed, expectedToEnding } from './markov';
@@ -43,7 +43,7 @@ export interface PathFigures {
 /** Estimated minutes of a step: its own, else the procedure's default; Formulas and endings take none. */
 export function stepMinutes(step: Step, minutesPerStep: number): number {
   if (step.minutes !== undefined) return step.minutes;
-  return step.kind === 'formula' || step.kind === 'finding' || step.kind === 'handoff' ? 0 : minutesPerStep;
+  return STEP_TRAITS[step.kind].takesTime ? minutesPerStep : 0;
 }
 
 function branchProbabilities(g: ProcedureGraph, options: PathFiguresOptions): Float64Array {

@@ -1,4 +1,5 @@
 import type { Step } from '../schema/procedure';
+import { STEP_TRAITS, handleCount } from './kinds';
 
 /** Distance between the centres of two neighbouring branch handles under a step's box. */
 export const HANDLE_PITCH = 96;
@@ -11,24 +12,11 @@ export function nodeWidth(handles: number): number {
   return Math.max(240, handles * HANDLE_PITCH + 8);
 }
 
-function nodeSize(kind: string, handles: number): { width: number; height: number } {
-  return { width: nodeWidth(handles), height: kind === 'reading' || kind === 'observation' ? 150 : kind === 'task' || kind === 'formula' ? 110 : 80 };
-}
-
-/** How many branch handles the canvas draws under a step (a Task, and a Formula without bands, have one). */
-export function handleCount(step: Step): number {
-  switch (step.kind) {
-    case 'reading': return step.bands.length + (step.borderline.action === 'branch' ? 1 : 0);
-    case 'formula': return step.bands.length || 1;
-    case 'observation': return step.answers.length;
-    case 'task': return 1;
-    default: return 0;
-  }
-}
+export { handleCount } from './kinds';
 
 /** The box a step is drawn in. */
 export function stepBox(step: Step): { width: number; height: number } {
-  return nodeSize(step.kind, handleCount(step));
+  return { width: nodeWidth(handleCount(step)), height: STEP_TRAITS[step.kind].boxHeight };
 }
 
 /** Where handle `i` of `n` sits under a step's box, measured from the box's centre. */

@@ -1,4 +1,4 @@
-import { branchesOf, isEnding, type Branch } from '../schema/branches';
+import { branchesOf, forEachTarget, isEnding, type Branch } from './kinds';
 import type { ProcedureDocument, Step } from '../schema/procedure';
 
 /**
@@ -47,41 +47,9 @@ function buildIndex(doc: ProcedureDocument): { steps: readonly Step[]; index: Ma
 }
 
 function branchCount(step: Step): number {
-  switch (step.kind) {
-    case 'reading':
-      return step.bands.length + (step.borderline.action === 'branch' ? 1 : 0);
-    case 'formula':
-      return step.bands.length + (step.next === undefined ? 0 : 1);
-    case 'observation':
-      return step.answers.length;
-    case 'task':
-      return step.next === undefined ? 0 : 1;
-    default:
-      return 0;
-  }
-}
-
-/** Calls `visit(to, local)` for each branch of a step, in `branchesOf` order, without allocating. */
-function forEachTarget(step: Step, visit: (to: string, local: number) => void): void {
-  let i = 0;
-  switch (step.kind) {
-    case 'reading':
-      for (const b of step.bands) visit(b.next, i++);
-      if (step.borderline.action === 'branch') visit(step.borderline.next, i);
-      return;
-    case 'formula':
-      for (const b of step.bands) visit(b.next, i++);
-      if (step.next !== undefined) visit(step.next, i);
-      return;
-    case 'observation':
-      for (const a of step.answers) visit(a.next, i++);
-      return;
-    case 'task':
-      if (step.next !== undefined) visit(step.next, 0);
-      return;
-    default:
-      return;
-  }
+  let n = 0;
+  forEachTarget(step, () => n++);
+  return n;
 }
 
 interface OutEdges {

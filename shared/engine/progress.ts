@@ -1,5 +1,5 @@
 import type { ProcedureDocument } from '../schema/procedure';
-import { branchesOf } from '../schema/branches';
+import { branchesOf } from './kinds';
 import type { StepFigures } from './figures';
 
 type PerStep = Readonly<Record<string, StepFigures>>;

@@ -4,6 +4,7 @@ import { evaluateFormula, type FormulaValue } from '../measure/formula';
 import type { Reading, ReadingError } from '../measure/parse';
 import { decideReading, type ReadingDecision } from '../measure/verdict';
 import { decideEntered } from './reading-entry';
+import { unknownKind } from './kinds';
 import { stepView, type StepView } from './step-view';
 
 /** What the technician did at a step. */
@@ -134,16 +135,24 @@ export class ProcedureWalk {
     const step = id === null ? undefined : this.steps.get(id);
     if (!step) return this.stick(problem('dangling', `The procedure points to "${id}", which does not exist; hand the machine to a senior technician.`));
     this.current = step;
-    if (step.kind === 'finding' || step.kind === 'handoff') {
-      this.path.push({ stepId: step.id, kind: step.kind, entryIndex: null, next: null, outcome: 'ended' });
-      this.status = 'ended';
-      this.current = null;
-      return;
-    }
-    if (step.kind === 'formula') {
-      const r = this.compute(step);
-      if ('code' in r) return this.stick(r);
-      this.follow(r);
+    switch (step.kind) {
+      case 'finding':
+      case 'handoff':
+        this.path.push({ stepId: step.id, kind: step.kind, entryIndex: null, next: null, outcome: 'ended' });
+        this.status = 'ended';
+        this.current = null;
+        return;
+      case 'formula': {
+        const r = this.compute(step);
+        if ('code' in r) return this.stick(r);
+        return this.follow(r);
+      }
+      case 'reading':
+      case 'observation':
+      case 'task':
+        return; // the technician answers it
+      default:
+        return unknownKind(step);
     }
   }
 
@@ -189,13 +198,18 @@ export class ProcedureWalk {
       return problem('not-acknowledged', 'Read and acknowledge the DANGER note before answering this step.');
     }
     const done = (next: string | null): Outcome => ({ path: { stepId: step.id, kind: step.kind, entryIndex: index, answer: a, next, outcome: 'answered' } });
-    if (step.kind === 'reading' && a.kind === 'reading') return this.measure(step, a, index);
-    if (step.kind === 'observation' && a.kind === 'observation') {
-      const chosen = step.answers.find((x) => x.id === a.answerId);
-      return chosen ? done(chosen.next) : problem('unknown-answer', `"${a.answerId}" is not one of the answers of ${step.title}.`);
+    switch (step.kind) {
+      case 'reading':
+        return a.kind === 'reading' ? this.measure(step, a, index) : problem('wrong-kind', `${step.title} expects a reading.`);
+      case 'observation': {
+        const chosen = a.kind === 'observation' ? step.answers.find((x) => x.id === a.answerId) : undefined;
+        return chosen ? done(chosen.next) : problem('unknown-answer', `"${a.kind === 'observation' ? a.answerId : a.kind}" is not one of the answers of ${step.title}.`);
+      }
+      case 'task':
+        return step.next === undefined ? problem('dangling', `${step.title} has no next step; hand the machine to a senior technician.`) : done(step.next);
+      default:
+        return unknownKind(step); // kinds the technician does not answer fail `step.kind !== a.kind` above
     }
-    if (step.kind === 'task') return step.next === undefined ? problem('dangling', `${step.title} has no next step; hand the machine to a senior technician.`) : done(step.next);
-    return problem('wrong-kind', `${step.title} is not answered by the technician.`);
   }
 
   /** Going back: later path steps no longer apply; their entries stay in the record as superseded. */

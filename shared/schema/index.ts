@@ -1,5 +1,4 @@
 export * from './procedure';
-export * from './branches';
 export * from './upgrade';
 export * from './error';
 export * from './api';

@@ -4,7 +4,7 @@ import { startTestApp, signInAs, type TestEnv, type Client } from './harness';
 import { publishFixture, fixtureDoc } from './debrief.fixture';
 import { seedHistory } from '../../server/seeders/history';
 import { quartiles } from '@shared/stats/quantile';
-import { branchesOf } from '@shared/schema/branches';
+import { branchesOf } from '@shared/engine/kinds';
 import { expectedChainSeconds, orderByRatio } from '@shared/engine/advisor';
 
 // Every figure of the analytics endpoints (computed in SQL) is checked against a direct

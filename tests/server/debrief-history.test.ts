@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import { bandContains } from '@shared/measure/bands';
-import { branchesOf } from '@shared/schema/branches';
+import { branchesOf } from '@shared/engine/kinds';
 import { planWalks, rng, valueInBand, walkTowardsFault } from '../../server/seeders/history-walk';
 import { scheduleVisits } from '../../server/seeders/history';
 import { fixtureDoc } from './debrief.fixture';

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { findCheckChains, expectedChainSeconds, orderByRatio, adviseChain, reorderChain, type CheckEstimate } from '@shared/engine/advisor';
-import { branchesOf } from '@shared/schema/branches';
+import { branchesOf } from '@shared/engine/kinds';
 import { doc, finding, handoff, task, observation, ohmsReading } from './fixtures';
 
 // Kadane & Simon, Annals of Statistics 5(2), 1977; Heckerman, Breese & Rommelse, CACM 38(3), 1995:

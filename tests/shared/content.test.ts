@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildGraph, depthFirst, isBackEdge, lintProcedure, pathFigures } from '@shared/engine';
-import { branchesOf, procedureDocumentSchema, type Step } from '@shared/schema';
+import { procedureDocumentSchema, type Step } from '@shared/schema';
+import { branchesOf } from '@shared/engine/kinds';
 import { stepBox } from '@shared/engine/geometry';
 import { DEMO_PROCEDURES } from '../../content';
 

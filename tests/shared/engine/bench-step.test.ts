@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ReadingStep, StepInput } from '@shared/schema';
 import type { RecordStep } from '@shared/schema/bench';
-import { recordedHandle } from '@shared/schema/branches';
+import { recordedHandle } from '@shared/engine/kinds';
 import { decideEntered } from '@shared/engine/reading-entry';
 import { enteredOf, walkEntryOf } from '@shared/engine/step-entry';
 import { remeasuredAt, walkProcedure } from '@shared/engine/walk';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { branchesOf } from '@shared/schema/branches';
+import { branchesOf } from '@shared/engine/kinds';
 import { branchJump, pathFigures, stepsToGo } from '@shared/engine';
 import { DEMO_PROCEDURES } from '../../../content';
 import { noSpark } from '../../../content/no-spark';

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { CURRENT_SCHEMA_VERSION, branchesOf, procedureDocumentSchema, stepSchema, upgradeProcedure, type UpgradeStep } from '@shared/schema';
+import { CURRENT_SCHEMA_VERSION, procedureDocumentSchema, stepSchema, upgradeProcedure, type UpgradeStep } from '@shared/schema';
+import { branchesOf } from '@shared/engine/kinds';
 import { doc, finding, ohmsReading, task } from '../fixtures';
 
 const small = () => doc([task('start', 'coil'), ohmsReading('coil', 0.2, 1, { low: 'bad', ok: 'good', high: 'bad' }), finding('bad'), finding('good')]);

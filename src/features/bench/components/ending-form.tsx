@@ -1,4 +1,5 @@
 import { useState, type ReactNode } from 'react';
+import { kindLabel } from '@shared/engine/kinds';
 import type { StepView } from '@shared/engine/step-view';
 import type { EndingOutcome, FindingOutcome } from '@shared/schema/bench';
 import { SafetyBlock } from './step-card';
@@ -80,7 +81,7 @@ export function EndingForm({ view, pictures, photos, onFinish }: { view: StepVie
   };
   return (
     <article className="space-y-4" data-kind={view.kind} aria-labelledby="ending-title">
-      <p className="text-lg font-bold uppercase tracking-wide text-signal">{finding ? 'Finding' : 'Hand-off'}</p>
+      <p className="text-lg font-bold uppercase tracking-wide text-signal">{kindLabel(view.kind)}</p>
       <h2 id="ending-title" className="text-2xl font-black">{view.title}</h2>
       <SafetyBlock view={view} acknowledgedAt={null} locks={false} onAcknowledge={() => undefined} />
       {pictures}

@@ -3,12 +3,12 @@ import type { Step } from '@shared/schema/procedure';
 import type { StepView } from '@shared/engine/step-view';
 import type { FormulaValue } from '@shared/measure/formula';
 import { SafetyNote, LimitsNotice, saysServiceDataFirst } from '../../../components/ui/safety';
-import { ReadingField, type ReadingValue } from './reading-field';
+import type { ReadingValue } from './reading-field';
 import { StepPictures } from './step-pictures';
+import { AnswerControls, type Send } from './answer-controls';
 import type { Answer } from '../hooks/use-local-diagnosis';
 import { useFormat } from '../../../lib/format';
 
-const big = 'w-full min-h-16 rounded-xl px-5 text-xl font-bold text-left disabled:opacity-40';
 
 /** The mark a DANGER note keeps once acknowledged, so the step shows it was read and when. */
 function AcknowledgedMark({ at }: { at: string }) {
@@ -46,49 +46,6 @@ export function LimitsBox({ view }: { view: StepView }) {
       {view.limitsNote && <p className="text-base text-ink-soft" data-testid="limits-note">{view.limitsNote}</p>}
       {!saysServiceDataFirst(view.limitsNote) && <LimitsNotice className="text-base" />}
     </div>
-  );
-}
-
-type Send = (a: Partial<Omit<Answer, 'startedAt'>>) => Promise<void>;
-
-interface AnswerProps {
-  view: StepView;
-  step: Step;
-  values: Readonly<Record<string, FormulaValue>>;
-  remeasured: number;
-  locked: boolean;
-  reading: ReadingValue;
-  onReading(r: ReadingValue): void;
-  send: Send;
-}
-
-/** The control the step's kind asks for: a reading, one answer of an observation, or done. */
-function AnswerControls({ view, step, values, remeasured, locked, reading, onReading, send }: AnswerProps) {
-  return (
-    <>
-      {step.kind === 'reading' && (
-        <>
-          <ReadingField step={step} values={values} remeasured={remeasured} disabled={locked} onChange={onReading} />
-          <button type="button" className={`${big} bg-ink text-white`} disabled={!reading.valid}
-            onClick={() => void send({ entered: reading.entered, ...(reading.leadEntered.trim() ? { leadEntered: reading.leadEntered } : {}) })}>
-            Save reading and continue
-          </button>
-        </>
-      )}
-      {step.kind === 'observation' && (
-        <>
-          <p className="text-xl font-bold">{view.question}</p>
-          <div className="grid gap-3">
-            {view.answers?.map((a) => (
-              <button key={a.id} type="button" className={`${big} border-4 border-ink bg-panel text-ink hover:bg-signal-soft`} onClick={() => void send({ answerId: a.id })}>{a.label}</button>
-            ))}
-          </div>
-        </>
-      )}
-      {step.kind === 'task' && (
-        <button type="button" className={`${big} bg-ink text-white`} onClick={() => void send({})}>{view.confirmLabel ?? 'Done'}</button>
-      )}
-    </>
   );
 }
 

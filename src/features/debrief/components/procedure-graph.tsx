@@ -2,6 +2,7 @@ import { useMemo, useRef } from 'react';
 import { ReactFlow, Background, Controls, Handle, Position, type Edge, type Node, type NodeProps } from '@xyflow/react';
 import '@xyflow/react/dist/style.css';
 import type { ProcedureDocument } from '@shared/schema';
+import { STEP_TRAITS } from '@shared/engine/kinds';
 import { cx } from '../../../components/ui/cx';
 import { positions, type GraphEdge, type GraphNodeData } from '../lib/graph';
 import { heatRamp, palette } from '../lib/palette';
@@ -10,17 +11,14 @@ import { heatRamp, palette } from '../lib/palette';
 // signal colour in five steps; endings keep the ISO 5807 terminal shape (rounded).
 
 const FILL = ['bg-panel', 'bg-signal-soft', 'bg-signal/30', 'bg-signal/55', 'bg-signal/80'];
-const KIND_WORD: Record<string, string> = {
-  reading: 'Reading', observation: 'Observation', task: 'Task', formula: 'Formula', finding: 'Finding', handoff: 'Hand-off',
-};
 
 function StepNode({ data }: NodeProps<Node<GraphNodeData>>) {
-  const ending = data.kind === 'finding' || data.kind === 'handoff';
+  const ending = STEP_TRAITS[data.kind].arrival.on === 'end';
   return (
     <div className={cx('w-52 border-2 px-3 py-2 text-ink shadow-sm', ending ? 'rounded-2xl' : 'rounded-md', FILL[data.level],
       data.level >= 4 ? 'border-ink' : 'border-line', data.marked && 'ring-4 ring-edge')}>
       <Handle type="target" position={Position.Top} className="!bg-ink-soft" />
-      <p className="text-xs font-bold uppercase tracking-wide text-ink-soft">{KIND_WORD[data.kind]}</p>
+      <p className="text-xs font-bold uppercase tracking-wide text-ink-soft">{STEP_TRAITS[data.kind].label}</p>
       <p className="font-semibold leading-tight">{data.title}</p>
       {data.caption && <p className="mt-1 text-xs text-ink">{data.caption}</p>}
       <Handle type="source" position={Position.Bottom} className="!bg-ink-soft" />

@@ -1,5 +1,5 @@
 import type { ProcedureDocument, Step } from '@shared/schema';
-import { branchesOf } from '@shared/schema/branches';
+import { branchesOf } from '@shared/engine/kinds';
 import type { BranchFigure, StepFigure } from '@shared/stats/debrief-schema';
 
 export interface GraphNodeData extends Record<string, unknown> {

@@ -1,5 +1,6 @@
 import { Badge } from '../../../components/ui/card';
-import type { StepKind } from '@shared/schema';
+import { STEP_KINDS, type StepKind } from '@shared/schema';
+import { kindLabel } from '@shared/engine/kinds';
 import type { VersionStatus } from '../api/types';
 
 export const IGNITION_LABELS: Record<string, string> = {
@@ -7,9 +8,8 @@ export const IGNITION_LABELS: Record<string, string> = {
   'battery-inductive': 'Battery inductive', other: 'Other',
 };
 
-export const KIND_LABELS: Record<StepKind, string> = {
-  reading: 'Reading', observation: 'Observation', task: 'Task', formula: 'Formula', finding: 'Finding', handoff: 'Hand-off',
-};
+/** The name of each step kind, from the kinds' one table in shared/. */
+export const KIND_LABELS = Object.fromEntries(STEP_KINDS.map((k) => [k, kindLabel(k)])) as Record<StepKind, string>;
 
 const STATUS: Record<VersionStatus, { label: string; tone: 'neutral' | 'go' | 'signal' | 'edge' }> = {
   draft: { label: 'Draft', tone: 'signal' },

@@ -1,7 +1,8 @@
-import { branchesOf, stepSchema, type ProcedureDocument, type Step } from '@shared/schema';
+import { stepSchema, type ProcedureDocument, type Step } from '@shared/schema';
+import { branchesOf } from '@shared/engine/kinds';
 import { z } from 'zod';
 import { setBranch } from './edits';
-import { freeId } from './new-step';
+import { freeId } from './free-id';
 
 /** What copy puts on the clipboard: a marker and the steps, so paste works between procedures. */
 export const CLIP_FORMAT = 'sparkwright-steps';

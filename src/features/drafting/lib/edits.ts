@@ -1,11 +1,8 @@
 import type { Position, ProcedureDocument, ProcedureMeta, Step, StepId } from '@shared/schema';
+import { UNCONNECTED, retarget, setBranch } from '@shared/engine/kinds';
 
-/**
- * A band or answer drawn but not yet connected points here. The id is valid for the schema but
- * never given to a step (the editor never makes ids that start with "_"), so the soundness check
- * reports it as a dangling branch until the author connects it.
- */
-export const UNCONNECTED = '_unconnected';
+/** Where a drawn but unconnected branch points until the author connects it (the soundness check names it). */
+export { UNCONNECTED };
 
 /** Every change an author makes, as data: undo/redo and tests come from applying these. */
 export type Edit =
@@ -19,53 +16,8 @@ export type Edit =
   | { type: 'set-meta'; meta: ProcedureMeta }
   | { type: 'replace'; document: ProcedureDocument };
 
-/** Points every branch of a step that goes to `from` at `to` (for renames and removals). */
-function retarget(step: Step, from: StepId, to: StepId | undefined): Step {
-  const fix = (next: StepId) => (next === from ? (to ?? UNCONNECTED) : next);
-  switch (step.kind) {
-    case 'reading': {
-      const borderline = step.borderline.action === 'branch' && step.borderline.next === from
-        ? (to ? { ...step.borderline, next: to } : { action: 're-measure' as const, attempts: 1 })
-        : step.borderline;
-      return { ...step, bands: step.bands.map((b) => ({ ...b, next: fix(b.next) })), borderline };
-    }
-    case 'formula': {
-      const next = step.next === from ? to : step.next;
-      const { next: _drop, ...rest } = step;
-      return { ...rest, ...(next !== undefined ? { next } : {}), bands: step.bands.map((b) => ({ ...b, next: fix(b.next) })) };
-    }
-    case 'observation':
-      return { ...step, answers: step.answers.map((a) => ({ ...a, next: fix(a.next) })) };
-    case 'task': {
-      if (step.next !== from) return step;
-      const { next: _drop, ...rest } = step;
-      return to ? { ...rest, next: to } : rest;
-    }
-    default:
-      return step;
-  }
-}
-
 /** Sets (or with `to` undefined, clears) the branch behind one handle of a step. */
-export function setBranch(step: Step, handle: string, to: StepId | undefined): Step {
-  const target = to ?? UNCONNECTED;
-  if (handle.startsWith('band:') && (step.kind === 'reading' || step.kind === 'formula')) {
-    const id = handle.slice(5);
-    return { ...step, bands: step.bands.map((b) => (b.id === id ? { ...b, next: target } : b)) };
-  }
-  if (handle.startsWith('answer:') && step.kind === 'observation') {
-    const id = handle.slice(7);
-    return { ...step, answers: step.answers.map((a) => (a.id === id ? { ...a, next: target } : a)) };
-  }
-  if (handle === 'borderline' && step.kind === 'reading') {
-    return { ...step, borderline: to ? { action: 'branch', next: to, label: 'Borderline' } : { action: 're-measure', attempts: 1 } };
-  }
-  if (handle === 'next' && (step.kind === 'task' || step.kind === 'formula')) {
-    const { next: _drop, ...rest } = step;
-    return to ? { ...rest, next: to } : rest;
-  }
-  return step;
-}
+export { setBranch };
 
 function mapSteps(doc: ProcedureDocument, fn: (s: Step) => Step): ProcedureDocument {
   return { ...doc, steps: doc.steps.map(fn) };

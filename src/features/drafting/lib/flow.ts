@@ -1,5 +1,6 @@
 import type { Edge, FitViewOptions, Node, NodeHandle, Position } from '@xyflow/react';
-import { branchesOf, type ProcedureDocument, type Step } from '@shared/schema';
+import type { ProcedureDocument, Step } from '@shared/schema';
+import { branchesOf, outletsOf } from '@shared/engine/kinds';
 import { handleOffset, stepBox } from '@shared/engine/geometry';
 import { setBranch } from './edits';
 
@@ -63,25 +64,7 @@ function removedNode(step: Step): StepNode {
 
 /** The handles a step offers, open ones (not yet connected) included. */
 function handlesOf(step: Step, ids: ReadonlySet<string>): StepNodeData['handles'] {
-  const connected = new Map(branchesOf(step).map((b) => [b.handle, b.to]));
-  const open = (h: string) => !ids.has(connected.get(h) ?? '');
-  switch (step.kind) {
-    case 'reading': {
-      const out = step.bands.map((b) => ({ id: `band:${b.id}`, label: b.label, open: open(`band:${b.id}`) }));
-      if (step.borderline.action === 'branch') out.push({ id: 'borderline', label: step.borderline.label, open: open('borderline') });
-      return out;
-    }
-    case 'formula': {
-      const out = step.bands.map((b) => ({ id: `band:${b.id}`, label: b.label, open: open(`band:${b.id}`) }));
-      return out.length > 0 ? out : [{ id: 'next', label: 'Next', open: open('next') }];
-    }
-    case 'observation':
-      return step.answers.map((a) => ({ id: `answer:${a.id}`, label: a.label, open: open(`answer:${a.id}`) }));
-    case 'task':
-      return [{ id: 'next', label: step.confirmLabel, open: open('next') }];
-    default:
-      return [];
-  }
+  return outletsOf(step).map((o) => ({ id: o.handle, label: o.label, open: !ids.has(o.to ?? '') }));
 }
 
 /**

@@ -1,5 +1,5 @@
 import type { ProcedureDocument, Position } from '@shared/schema';
-import { branchesOf } from '@shared/schema';
+import { branchesOf } from '@shared/engine/kinds';
 import { stepBox } from '@shared/engine/geometry';
 
 /**

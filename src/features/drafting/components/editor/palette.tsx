@@ -1,18 +1,10 @@
 import { STEP_KINDS, type StepKind } from '@shared/schema';
 import { KIND_LABELS } from '../labels';
+import { KIND_EDITORS } from '../../kinds';
 import { PALETTE_MIME } from './canvas';
 import { KIND_TONE, OUTLINE, OutlineShape, StepGlyph } from './step-glyphs';
 
-const HINTS: Record<StepKind, string> = {
-  reading: 'Measure a value; bands branch',
-  observation: 'Ask what they see; answers branch',
-  task: 'Do something and confirm',
-  formula: 'Compute from earlier readings',
-  finding: 'End with cause and repair',
-  handoff: 'End by handing to a senior',
-};
-
-/** The six step kinds: drag one onto the canvas, or press it to add it in the middle of the view. */
+/** The step kinds: drag one onto the canvas, or press it to add it in the middle of the view. */
 export function Palette({ disabled, onAdd }: { disabled: boolean; onAdd: (kind: StepKind) => void }) {
   return (
     <nav aria-label="Step kinds" className="flex flex-col gap-2">
@@ -27,7 +19,7 @@ export function Palette({ disabled, onAdd }: { disabled: boolean; onAdd: (kind: 
           onClick={() => onAdd(kind)}
           className="group flex min-h-12 items-center gap-2 rounded-lg border border-line bg-panel p-1.5 text-left hover:border-ink disabled:opacity-50"
           data-testid={`palette-${kind}`}
-          title={HINTS[kind]}
+          title={KIND_EDITORS[kind].hint}
         >
           <span className={`relative flex h-9 w-12 shrink-0 items-center justify-center ${KIND_TONE[kind].text}`}>
             <OutlineShape kind={kind} />

@@ -2,7 +2,7 @@ import type { Band, BandEnd } from '@shared/schema';
 import type { Quantity } from '@shared/measure';
 import { Button } from '../../../../components/ui/button';
 import { Input } from '../../../../components/ui/field';
-import { freeId } from '../../lib/new-step';
+import { freeId } from '../../lib/free-id';
 import { NumberInput } from './number-input';
 import { TargetSelect } from './target-select';
 import { BandLine } from './band-line';

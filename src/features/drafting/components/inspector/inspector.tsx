@@ -6,44 +6,13 @@ import { KIND_LABELS } from '../labels';
 import { StepGlyph, KIND_TONE } from '../editor/step-glyphs';
 import { CommonFields } from './common-fields';
 import { SafetyEditor } from './safety-editor';
-import { ReadingFields } from './reading-fields';
-import { FormulaFields } from './formula-fields';
-import { AnswersEditor, PartsEditor } from './list-editors';
-import { FindingText, HandoffText, ObservationText, TaskText } from './text-fields';
-import { TargetSelect } from './target-select';
 import { PicturesEditor } from './pictures-editor';
 import type { VersionIds } from '../../api/versions';
+import { editorOf } from '../../kinds';
 
-function KindFields({ step, doc, stepIds, readOnly, update }: { step: Step; doc: ProcedureDocument; stepIds: string[]; readOnly: boolean; update: (s: Step) => void }) {
-  switch (step.kind) {
-    case 'reading':
-      return <ReadingFields step={step} stepIds={stepIds} readOnly={readOnly} onChange={update} />;
-    case 'formula':
-      return <FormulaFields step={step} doc={doc} stepIds={stepIds} readOnly={readOnly} onChange={update} />;
-    case 'observation':
-      return (
-        <>
-          <ObservationText step={step} readOnly={readOnly} onChange={update} />
-          <AnswersEditor answers={step.answers} stepIds={stepIds} disabled={readOnly} onChange={(answers) => update({ ...step, answers })} />
-        </>
-      );
-    case 'task':
-      return (
-        <>
-          <TaskText step={step} readOnly={readOnly} onChange={update} />
-          <fieldset disabled={readOnly}><TargetSelect label="Next step" value={step.next ?? '_unconnected'} stepIds={stepIds} onChange={(next) => update({ ...step, next })} /></fieldset>
-        </>
-      );
-    case 'finding':
-      return (
-        <>
-          <FindingText step={step} readOnly={readOnly} onChange={update} />
-          <PartsEditor parts={step.parts} disabled={readOnly} onChange={(parts) => update({ ...step, parts })} />
-        </>
-      );
-    case 'handoff':
-      return <HandoffText step={step} readOnly={readOnly} onChange={update} />;
-  }
+function KindFields({ step, ...rest }: { step: Step; doc: ProcedureDocument; stepIds: string[]; readOnly: boolean; update: (s: Step) => void }) {
+  const { Fields } = editorOf(step);
+  return <Fields step={step} {...rest} />;
 }
 
 /** The form for the selected step; every change is one `update-step` edit (undoable). */

@@ -2,7 +2,7 @@ import type { Answer, Part } from '@shared/schema';
 import { Button } from '../../../../components/ui/button';
 import { Input } from '../../../../components/ui/field';
 import { UNCONNECTED } from '../../lib/edits';
-import { freeId } from '../../lib/new-step';
+import { freeId } from '../../lib/free-id';
 import { TargetSelect } from './target-select';
 
 /** The answers of an Observation: each is a branch. */
