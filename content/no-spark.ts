@@ -18,7 +18,10 @@ export const noSpark = procedure(
       ['strong', 'Strong blue spark', 'sparkGood'], ['weak', 'Weak or orange spark', 'useWeakSpark'], ['none', 'No spark', 'isolateStop'],
     ], { title: 'Spark test', instructions: 'Crank briskly for three seconds with the kill switch in RUN and the key ON.', ...CRANKING }),
     handoff('sparkGood', 'Spark is present', 'The ignition makes a strong spark; the no-start lies in fuel, air or compression. A senior technician takes it from here.'),
-    handoff('useWeakSpark', 'Spark is weak', 'There is a spark but it is weak; run the "Weak or intermittent spark" procedure instead.'),
+    {
+      id: 'useWeakSpark', kind: 'link', procedure: 'weak-spark', title: 'Continue in "Weak or intermittent spark"',
+      instructions: 'There is a spark but it is weak: the diagnosis goes on in the weak-spark procedure, in the same record.',
+    },
     task('isolateStop', 'sparkRetest', {
       title: 'Isolate the stop circuit',
       instructions: 'Unplug the stop lead (kill switch and key switch) at the CDI so that nothing can ground the stop input.',

@@ -15,6 +15,8 @@ export class ProcedureVersion extends Model<InferAttributes<ProcedureVersion>, I
   declare document: Record<string, unknown>;
   declare lockVersion: CreationOptional<number>;
   declare lintReport: CreationOptional<unknown[]>;
+  /** Which version of each procedure its "Continue in" steps continue in (slug → version id), fixed at publish. */
+  declare links: CreationOptional<Record<string, string>>;
   declare basedOnId: string | null;
   declare createdBy: string | null;
   declare updatedBy: string | null;
@@ -35,6 +37,7 @@ export class ProcedureVersion extends Model<InferAttributes<ProcedureVersion>, I
         document: { type: DataTypes.JSONB, allowNull: false },
         lockVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
         lintReport: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
+        links: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
         basedOnId: { type: DataTypes.UUID, allowNull: true },
         createdBy: { type: DataTypes.UUID, allowNull: true },
         updatedBy: { type: DataTypes.UUID, allowNull: true },

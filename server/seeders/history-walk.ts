@@ -1,5 +1,5 @@
 import type { Band, ProcedureDocument, Step, StepId } from '@shared/schema/procedure';
-import { branchesOf, isEnding, type Branch } from '@shared/engine/kinds';
+import { STEP_TRAITS, branchesOf, isEnding, type Branch } from '@shared/engine/kinds';
 import { resolveLimits } from '@shared/measure/verdict';
 import { bandContains } from '@shared/measure/bands';
 import { formatReading } from '@shared/measure/format';
@@ -118,7 +118,7 @@ export function valueInBand(band: Pick<Band, 'lower' | 'upper'>, limits: { min?:
 }
 
 function stepSeconds(plan: WalkPlan, step: Step, rand: () => number, speed: number): number {
-  const minutes = step.minutes ?? (step.kind === 'formula' ? 0 : plan.doc.meta.minutesPerStep);
+  const minutes = step.minutes ?? (STEP_TRAITS[step.kind].takesTime ? plan.doc.meta.minutesPerStep : 0);
   return Math.max(3, Math.round(minutes * 60 * speed * Math.exp(0.45 * normal(rand))));
 }
 

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { QueryTypes, type Transaction } from 'sequelize';
-import { upgradeProcedure } from '@shared/schema/upgrade';
+import { loadPinnedVersion } from '../services/bench.service';
 import type { AppDeps } from '../deps';
 import { hashPassword } from '../lib/passwords';
 import { planWalks, rng, pick, walkTowardsFault, type Walk, type WalkedStep, type WalkPlan } from './history-walk';
@@ -40,16 +40,17 @@ const FLEET = [
 ];
 
 async function loadVersions(deps: Pick<AppDeps, 'sequelize'>, shopId: string): Promise<Version[]> {
-  const rows = await deps.sequelize.query<{ id: string; document: unknown }>(
-    `SELECT id, document FROM procedure_versions WHERE shop_id = $1 AND status = 'published' ORDER BY created_at`,
+  const rows = await deps.sequelize.query<{ id: string }>(
+    `SELECT id FROM procedure_versions WHERE shop_id = $1 AND status = 'published' ORDER BY created_at`,
     { bind: [shopId], type: QueryTypes.SELECT },
   );
-  return rows.map((r) => {
-    // Read as the step endpoint reads a pinned version (loadPinnedVersion), so both decide alike.
-    const up = upgradeProcedure(r.document);
-    if (!up.ok) throw new Error(`Published version ${r.id} cannot be read: ${up.message}`);
-    return { id: r.id, plan: planWalks(up.document) };
-  }).filter((v) => v.plan.endings.length > 0); // a version with no reachable ending cannot be walked
+  const versions: Version[] = [];
+  for (const r of rows) {
+    // Read as the step endpoint reads it (joined with the versions its links continue in), so both decide alike.
+    const v = await loadPinnedVersion(deps.sequelize, shopId, r.id);
+    versions.push({ id: r.id, plan: planWalks(v.document) });
+  }
+  return versions.filter((v) => v.plan.endings.length > 0); // a version with no reachable ending cannot be walked
 }
 
 /** The shop's technicians plus a few invented apprentices, each with their own pace and bias. */

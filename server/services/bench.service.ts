@@ -2,6 +2,7 @@ import { QueryTypes, type Sequelize } from 'sequelize';
 import { upgradeProcedure } from '@shared/schema/upgrade';
 import type { ProcedureDocument, Step } from '@shared/schema/procedure';
 import type { BenchProcedure, BenchVersion } from '@shared/schema/bench';
+import { joinLinked, MAX_LINK_DEPTH } from '@shared/engine/link-join';
 import type { ShopContext } from '../auth/context';
 import { AppError, notFound } from '../lib/errors';
 import { recordedHandle } from '@shared/engine/kinds';
@@ -13,8 +14,11 @@ export interface PinnedVersion {
   slug: string;
   title: string;
   number: number;
+  /** The version's document, joined with every version its "Continue in" steps continue in. */
   document: ProcedureDocument;
   steps: ReadonlyMap<string, Step>;
+  /** Every other version a walk of this one may run (linked, and what those link to). */
+  linkedVersionIds: readonly string[];
 }
 
 // Published and retired versions never change, so a parsed document can be kept for the life of
@@ -28,12 +32,15 @@ function remember(v: PinnedVersion): PinnedVersion {
   return v;
 }
 
-/** A published (or retired) version of this shop, parsed and indexed by step id. */
-export async function loadPinnedVersion(sequelize: Sequelize, shopId: string, versionId: string): Promise<PinnedVersion> {
+/**
+ * A published (or retired) version of this shop, parsed, joined with the versions its links
+ * continue in (as fixed at publish), and indexed by step id.
+ */
+export async function loadPinnedVersion(sequelize: Sequelize, shopId: string, versionId: string, depth = 0): Promise<PinnedVersion> {
   const hit = pinned.get(versionId);
   if (hit && hit.shopId === shopId) return hit;
-  const rows = await sequelize.query<{ id: string; shop_id: string; procedure_id: string; slug: string; title: string; number: number; document: unknown }>(
-    `SELECT v.id, v.shop_id, v.procedure_id, p.slug, p.title, v.number, v.document
+  const rows = await sequelize.query<{ id: string; shop_id: string; procedure_id: string; slug: string; title: string; number: number; document: unknown; links: Record<string, string> }>(
+    `SELECT v.id, v.shop_id, v.procedure_id, p.slug, p.title, v.number, v.document, v.links
        FROM procedure_versions v JOIN procedures p ON p.id = v.procedure_id
       WHERE v.id = :versionId AND v.shop_id = :shopId AND v.status IN ('published', 'retired')`,
     { replacements: { versionId, shopId }, type: QueryTypes.SELECT },
@@ -42,9 +49,19 @@ export async function loadPinnedVersion(sequelize: Sequelize, shopId: string, ve
   if (!row) throw notFound('That procedure version');
   const up = upgradeProcedure(row.document);
   if (!up.ok) throw new AppError(500, 'bad_document', `The procedure version cannot be read: ${up.message}`);
+  const targets = new Map<string, PinnedVersion>();
+  // The soundness check refuses link cycles at publish; the depth bound keeps a bad row from recursing.
+  if (depth < MAX_LINK_DEPTH) {
+    for (const [slug, id] of Object.entries(row.links ?? {})) targets.set(slug, await loadPinnedVersion(sequelize, shopId, id, depth + 1));
+  }
+  const joined = joinLinked(up.document, row.slug, (slug) => {
+    const t = targets.get(slug);
+    return t && { slug: t.slug, title: t.title, versionId: t.id, number: t.number, document: t.document };
+  });
+  const linkedVersionIds = [...new Set(joined.linked.flatMap((l) => [l.versionId, ...(targets.get(l.slug)?.linkedVersionIds ?? [])]))];
   return remember({
     id: row.id, shopId: row.shop_id, procedureId: row.procedure_id, slug: row.slug, title: row.title, number: row.number,
-    document: up.document, steps: new Map(up.document.steps.map((s) => [s.id, s])),
+    document: joined.document, steps: new Map(joined.document.steps.map((s) => [s.id, s])), linkedVersionIds,
   });
 }
 

@@ -40,6 +40,7 @@ export function shownOf(step: Step): StepShown {
     case 'task': return { ...base, confirmLabel: step.confirmLabel };
     case 'finding': return { ...base, cause: step.cause, repair: step.repair, parts: step.parts };
     case 'handoff': return { ...base, reason: step.reason };
+    case 'link': return { ...base, procedure: step.procedure, ...(step.procedureTitle ? { procedureTitle: step.procedureTitle } : {}), ...(step.entry ? { entry: step.entry } : {}) };
   }
 }
 

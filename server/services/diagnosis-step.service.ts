@@ -124,7 +124,7 @@ function outcomeFor(step: Step, input: DiagnosisStepInput): { endStatus: Diagnos
   switch (step.kind) {
     case 'finding': return { endStatus: 'finished', outcome: JSON.stringify(parseInput(FindingOutcomeInput, input.outcome ?? {}, 'The finding')) };
     case 'handoff': return { endStatus: 'handed_off', outcome: JSON.stringify(parseInput(HandoffOutcomeInput, input.outcome ?? {}, 'The hand-off')) };
-    case 'reading': case 'observation': case 'task': case 'formula': return { endStatus: null, outcome: null };
+    case 'reading': case 'observation': case 'task': case 'formula': case 'link': return { endStatus: null, outcome: null };
     default: return unknownKind(step);
   }
 }

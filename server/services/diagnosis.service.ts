@@ -27,7 +27,12 @@ export async function startDiagnosis(deps: AppDeps, ctx: ShopContext, input: Sta
       meterId: input.meterId, complaint: input.complaint, conditions: input.conditions, endingStepId: null, outcome: null,
       endedAt: null, startedAt: new Date(input.startedAt),
     }, { transaction });
-    await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'diagnosis.started', entity: 'diagnosis', entityId: input.id, detail: { versionId: version.id } }, transaction);
+    // Pins every other version the walk may run (its "Continue in" steps), beside its own.
+    for (const linkedId of version.linkedVersionIds) {
+      await deps.sequelize.query('INSERT INTO diagnosis_linked_versions (diagnosis_id, procedure_version_id, shop_id) VALUES (:id, :linkedId, :shopId)',
+        { replacements: { id: input.id, linkedId, shopId: ctx.shopId }, transaction });
+    }
+    await audit({ shopId: ctx.shopId, userId: ctx.userId, action: 'diagnosis.started', entity: 'diagnosis', entityId: input.id, detail: { versionId: version.id, linkedVersionIds: version.linkedVersionIds } }, transaction);
   });
   return { created: true, id: input.id };
 }

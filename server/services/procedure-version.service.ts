@@ -7,6 +7,7 @@ import { upgradeProcedure, type ProcedureDocument } from '@shared/schema';
 import { audit } from './audit';
 import { expectStatus, findProcedure, findVersion, namesOf, versionSummary, type VersionSummary } from './procedure-common';
 import { lintDocument } from './procedure-lint';
+import { linkCatalogue, resolvedLinks } from './procedure-links';
 import type { SaveDraftBody } from './procedure-inputs';
 import { checkPictureRefs } from './step-picture.service';
 
@@ -65,8 +66,10 @@ export async function saveDraft(deps: AppDeps, ctx: ShopContext, ids: { procedur
     expectStatus(v, ['draft'], 'edited (published versions never change; start a new draft from them)');
     if (v.lockVersion !== body.lockVersion) throw await staleSave(v, t);
     await checkPictureRefs(deps, ctx, body.document, t);
+    const hasLinks = body.document.steps.some((s) => s.kind === 'link');
+    const catalogue = hasLinks ? (await linkCatalogue(ctx.shopId, p.slug, { forPublish: false, transaction: t })).catalogue : undefined;
     await v.update({
-      document: body.document as unknown as Record<string, unknown>, lintReport: lintDocument(body.document).findings,
+      document: body.document as unknown as Record<string, unknown>, lintReport: lintDocument(body.document, catalogue).findings,
       lockVersion: v.lockVersion + 1, updatedBy: ctx.userId,
     }, { transaction: t });
     const published = await ProcedureVersion.count({ where: { procedureId: p.id, status: ['published', 'retired'] }, transaction: t });
@@ -128,7 +131,8 @@ export async function moveVersion(deps: AppDeps, ctx: ShopContext, ids: { proced
 /** Publishing re-runs the soundness check here, never trusting the client's report. */
 async function publish(ctx: ShopContext, v: ProcedureVersion, p: Procedure, t: Transaction): Promise<void> {
   const doc = storedDocument(v);
-  const lint = lintDocument(doc);
+  const { catalogue, published } = await linkCatalogue(ctx.shopId, p.slug, { forPublish: true, transaction: t });
+  const lint = lintDocument(doc, catalogue);
   if (lint.errors > 0) {
     throw new AppError(422, 'unsound_procedure',
       `The soundness check found ${lint.errors} error${lint.errors === 1 ? '' : 's'}; send the draft back so the author can fix them.`,
@@ -136,7 +140,7 @@ async function publish(ctx: ShopContext, v: ProcedureVersion, p: Procedure, t: T
   }
   const last = (await ProcedureVersion.max<number, ProcedureVersion>('number', { where: { procedureId: p.id }, transaction: t })) ?? 0;
   await v.update({
-    status: 'published', number: last + 1, lintReport: lint.findings, publishedBy: ctx.userId, publishedAt: new Date(),
+    status: 'published', number: last + 1, lintReport: lint.findings, links: resolvedLinks(doc, published), publishedBy: ctx.userId, publishedAt: new Date(),
     lockVersion: v.lockVersion + 1,
   }, { transaction: t });
   await syncMeta(p, doc, t);

@@ -1,4 +1,5 @@
 import type { Step } from '../schema/procedure';
+import type { LinkCatalogue } from './lint-links';
 
 export type LintSeverity = 'error' | 'warning';
 
@@ -28,6 +29,10 @@ export type LintCode =
   | 'meter-missing'
   | 'single-answer'
   | 'finding-without-repair'
+  | 'link-target-missing'
+  | 'link-target-unpublished'
+  | 'link-entry-missing'
+  | 'link-cycle'
   | 'long-path';
 
 export interface LintFinding {
@@ -42,6 +47,8 @@ export interface LintFinding {
 export interface LintOptions {
   /** A loop-free path longer than this many steps draws a warning. Default 40. */
   readonly longPathSteps?: number;
+  /** The shop's procedures, for checking "Continue in" steps; without it links are checked on their own. */
+  readonly links?: LinkCatalogue;
 }
 
 /** How a step is named in messages: its title, and its id when the title is not unique enough. */

@@ -3,6 +3,7 @@ import { depthFirst, dominators } from './algorithms';
 import { buildGraph } from './graph';
 import { lintDataflow } from './lint-dataflow';
 import { lintReachability, lintStructure, longestLoopFreePath } from './lint-graph';
+import { lintLinks } from './lint-links';
 import { lintStep } from './lint-steps';
 import { finding, type LintFinding, type LintOptions } from './lint-types';
 
@@ -27,6 +28,7 @@ export function lintProcedure(doc: ProcedureDocument, options: LintOptions = {})
   const all: LintFinding[] = [...lintStructure(g, doc.start), ...lintReachability(g, dfs)];
   for (const step of g.steps) lintStep(step, all);
   all.push(...lintDataflow(g, dominators(g, dfs)));
+  if (options.links) all.push(...lintLinks(doc, options.links));
   const limit = options.longPathSteps ?? 40;
   const longest = longestLoopFreePath(g, dfs);
   if (longest > limit) {
@@ -39,3 +41,4 @@ export function lintProcedure(doc: ProcedureDocument, options: LintOptions = {})
 }
 
 export type { LintCode, LintFinding, LintOptions, LintSeverity } from './lint-types';
+export type { LinkCatalogue, LinkTarget } from './lint-links';

@@ -147,6 +147,10 @@ export class ProcedureWalk {
         if ('code' in r) return this.stick(r);
         return this.follow(r);
       }
+      case 'link':
+        // Joined with its other procedure, a link passes on to that procedure's first step.
+        if (step.next === undefined) return this.stick(problem('dangling', `${step.title} continues in the procedure "${step.procedure}", which this walk does not have; reload with signal, or hand the machine to a senior technician.`));
+        return this.follow({ path: { stepId: step.id, kind: 'link', entryIndex: null, next: step.next, outcome: 'computed' } });
       case 'reading':
       case 'observation':
       case 'task':

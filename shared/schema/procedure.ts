@@ -190,6 +190,11 @@ export const findingStepSchema = z.object({
   cause: z.string().trim().min(1).max(600),
   repair: z.string().max(2000).default(''),
   parts: z.array(partSchema).max(30).default([]),
+  /**
+   * Reached in a procedure that was continued in from another one with a way back, this Finding
+   * does not end the diagnosis: it returns to the calling procedure's chosen step.
+   */
+  returns: z.boolean().default(false),
 });
 export type FindingStep = z.infer<typeof findingStepSchema>;
 
@@ -200,7 +205,33 @@ export const handoffStepSchema = z.object({
 });
 export type HandoffStep = z.infer<typeof handoffStepSchema>;
 
-export const STEP_KINDS = ['reading', 'observation', 'task', 'formula', 'finding', 'handoff'] as const;
+/** A procedure of the shop as a link names it: its slug, stable across versions and titles. */
+export const procedureSlugSchema = z.string().regex(/^[a-z0-9][a-z0-9-]{0,79}$/, 'Use the procedure\'s short name: lower-case letters, digits and - (at most 80)');
+
+/**
+ * "Continue in": the diagnosis goes on in another published procedure of the shop, at its start
+ * or at `entry`, and comes back to `back` in this procedure when the other one reaches a Finding
+ * marked `returns` (without `back`, the other procedure's endings end the diagnosis).
+ */
+export const linkStepSchema = z.object({
+  ...stepBase,
+  kind: z.literal('link'),
+  procedure: procedureSlugSchema,
+  /** A step of the other procedure to begin at; its start when left out. */
+  entry: stepIdSchema.optional(),
+  /** The step of this procedure a returning Finding comes back to. */
+  back: stepIdSchema.optional(),
+  /**
+   * Set only when the other procedure's steps are joined into one walk (`joinLinked`): the first
+   * of them. Authors and files leave it out.
+   */
+  next: stepIdSchema.optional(),
+  /** Set with `next` when joined: the other procedure's title, for the screen and the record. */
+  procedureTitle: z.string().max(120).optional(),
+});
+export type LinkStep = z.infer<typeof linkStepSchema>;
+
+export const STEP_KINDS = ['reading', 'observation', 'task', 'formula', 'finding', 'handoff', 'link'] as const;
 export type StepKind = (typeof STEP_KINDS)[number];
 
 export const stepSchema = z
@@ -211,6 +242,7 @@ export const stepSchema = z
     formulaStepSchema,
     findingStepSchema,
     handoffStepSchema,
+    linkStepSchema,
   ])
   .superRefine((step, ctx) => {
     if ((step.kind === 'reading' || step.kind === 'formula') && !isDisplayUnit(step.quantity, step.unit)) {

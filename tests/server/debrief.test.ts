@@ -5,7 +5,8 @@ import { publishFixture } from './debrief.fixture';
 import { seedHistory, seedHistoryIfEmpty } from '../../server/seeders/history';
 import { lintProcedure } from '@shared/engine/lint';
 import { findCheckChains } from '@shared/engine/advisor';
-import { procedureDocumentSchema } from '@shared/schema';
+import { procedureDocumentSchema, type ProcedureDocument } from '@shared/schema';
+import { loadPinnedVersion } from '../../server/services/bench.service';
 import type { ProcedureWalk } from '@shared/engine/walk';
 import { decideStep, type PathRow } from '../../server/services/diagnosis-decide';
 
@@ -200,16 +201,19 @@ describe('the demo history is what Bench writes', () => {
   // stores for the same answers: replaying every path through the endpoint's decideStep gives the
   // same verdict, branch, value, next step and route.
   it('every answered step of every seeded diagnosis replays through the live decision to the row stored', async () => {
-    const rows = await q(`SELECT s.diagnosis_id, s.step_id, s.entered, s.answer_id, s.value, s.unit, s.verdict, s.band_id, s.next_step_id, s.shown, v.document
-      FROM diagnosis_steps s JOIN diagnoses d ON d.id = s.diagnosis_id JOIN procedure_versions v ON v.id = d.procedure_version_id
+    const rows = await q(`SELECT s.diagnosis_id, s.step_id, s.entered, s.answer_id, s.value, s.unit, s.verdict, s.band_id, s.next_step_id, s.shown, d.procedure_version_id
+      FROM diagnosis_steps s JOIN diagnoses d ON d.id = s.diagnosis_id
       WHERE s.shop_id = $1 AND NOT s.superseded ORDER BY s.diagnosis_id, s.seq`, [shopId]);
+    // The endpoint walks the version joined with the versions its links continue in; so does the replay.
+    const docs = new Map<string, ProcedureDocument>();
+    for (const r of rows) if (!docs.has(r.procedure_version_id)) docs.set(r.procedure_version_id, (await loadPinnedVersion(env.runtime.deps.sequelize, shopId, r.procedure_version_id)).document);
     expect(rows.length).toBeGreaterThan(500);
     let walk: ProcedureWalk | undefined;
     let keep: PathRow[] = [];
     const mismatches: string[] = [];
     rows.forEach((r, i) => {
       if (i === 0 || rows[i - 1].diagnosis_id !== r.diagnosis_id) { walk = undefined; keep = []; }
-      const doc = procedureDocumentSchema.parse(r.document);
+      const doc = docs.get(r.procedure_version_id)!;
       const answer = { stepId: r.step_id, entered: r.entered ?? undefined, answerId: r.answer_id ?? undefined, acknowledged: r.shown.acknowledged === true };
       const out = decideStep(doc, new Map(doc.steps.map((st) => [st.id, st])), keep, answer, walk);
       const d = out.decided;

@@ -31,6 +31,7 @@ export function endingTraits(status: 'finished' | 'handed_off') {
   return {
     arrival: { on: 'end', status },
     check: false,
+    ends: () => true,
     takesTime: false,
     boxHeight: 80,
     outlets: () => [],

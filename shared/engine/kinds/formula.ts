@@ -9,6 +9,7 @@ export const formula: KindTraits<'formula'> = {
   label: 'Formula',
   arrival: { on: 'compute' },
   check: false,
+  ends: () => false,
   takesTime: false,
   boxHeight: 110,
   outlets(step) {

@@ -3,6 +3,7 @@ import type { LintFinding } from '../lint-types';
 import { finding } from './finding';
 import { formula } from './formula';
 import { handoff } from './handoff';
+import { link } from './link';
 import { observation } from './observation';
 import { reading } from './reading';
 import { task } from './task';
@@ -16,7 +17,7 @@ export { UNCONNECTED } from './common';
  * Every step kind's traits, keyed by kind. A kind added to `STEP_KINDS` without an entry here
  * does not compile; everything else the engine knows about a kind is read from this table.
  */
-export const STEP_TRAITS: { readonly [K in StepKind]: KindTraits<K> } = { reading, observation, task, formula, finding, handoff };
+export const STEP_TRAITS: { readonly [K in StepKind]: KindTraits<K> } = { reading, observation, task, formula, finding, handoff, link };
 
 /**
  * Calls a trait method with the step it belongs to. The one cast of the table: TypeScript cannot
@@ -41,9 +42,9 @@ export function recordedHandle(bandId: unknown, answerId: unknown): string {
 /** The name a person reads for a kind. Example: `kindLabel('handoff')` → 'Hand-off'. */
 export const kindLabel = (kind: StepKind): string => STEP_TRAITS[kind].label;
 
-/** Finding and Hand-off end a diagnosis. */
+/** The diagnosis may end at this step: a Finding, a Hand-off, or a link on its own (its other procedure ends it). */
 export function isEnding(step: Step): boolean {
-  return STEP_TRAITS[step.kind].arrival.on === 'end';
+  return call(step, (t, s) => t.ends(s));
 }
 
 /**

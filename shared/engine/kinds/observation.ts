@@ -9,6 +9,7 @@ export const observation: KindTraits<'observation'> = {
   label: 'Observation',
   arrival: { on: 'answer' },
   check: true,
+  ends: () => false,
   takesTime: true,
   boxHeight: 150,
   outlets: (step) => step.answers.map((a) => ({ handle: `answer:${a.id}`, label: a.label, kind: 'answer', to: a.next })),

@@ -9,6 +9,7 @@ export const reading: KindTraits<'reading'> = {
   label: 'Reading',
   arrival: { on: 'answer' },
   check: true,
+  ends: () => false,
   takesTime: true,
   boxHeight: 150,
   outlets(step) {

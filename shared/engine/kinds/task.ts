@@ -7,6 +7,7 @@ export const task: KindTraits<'task'> = {
   label: 'Task',
   arrival: { on: 'answer' },
   check: false,
+  ends: () => false,
   takesTime: true,
   boxHeight: 110,
   outlets: (step) => [{ handle: 'next', label: step.confirmLabel, kind: 'next', ...(step.next === undefined ? {} : { to: step.next }) }],

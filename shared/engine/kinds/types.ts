@@ -48,6 +48,8 @@ export interface KindView {
   readonly repair?: string;
   readonly parts?: readonly Part[];
   readonly reason?: string;
+  /** The procedure a "Continue in" step goes on in (its slug). */
+  readonly procedure?: string;
 }
 
 /**
@@ -62,6 +64,8 @@ export interface KindTraits<K extends StepKind> {
   readonly arrival: Arrival;
   /** An independent check the check-order advisor may move (Readings and Observations). */
   readonly check: boolean;
+  /** The diagnosis may end at the step (a Finding, a Hand-off, a link whose other procedure ends it). */
+  ends(step: StepOf<K>): boolean;
   /** Takes the technician time: the procedure's minutes per step apply when the step gives none. */
   readonly takesTime: boolean;
   /** Height of the step's box on the canvas (ISO 5807 outline inside). */

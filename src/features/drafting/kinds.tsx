@@ -3,6 +3,7 @@ import type { Position, ProcedureDocument, Step, StepKind } from '@shared/schema
 import { UNCONNECTED, type StepOf } from '@shared/engine/kinds';
 import { FormulaFields } from './components/inspector/formula-fields';
 import { AnswersEditor, PartsEditor } from './components/inspector/list-editors';
+import { LinkFields } from './components/inspector/link-fields';
 import { ReadingFields } from './components/inspector/reading-fields';
 import { TargetSelect } from './components/inspector/target-select';
 import { FindingText, HandoffText, ObservationText, TaskText } from './components/inspector/text-fields';
@@ -102,10 +103,14 @@ export const KIND_EDITORS: { readonly [K in StepKind]: KindEditor<K> } = {
     outline: 'terminal',
     tone: { fill: 'var(--color-go-soft)', stroke: 'var(--color-go)', text: 'text-go' },
     baseName: 'finding',
-    fresh: (id, position) => ({ ...common, id, position, kind: 'finding', title: 'New finding', cause: 'Describe the cause', repair: '', parts: [] }),
+    fresh: (id, position) => ({ ...common, id, position, kind: 'finding', title: 'New finding', cause: 'Describe the cause', repair: '', parts: [], returns: false }),
     Fields: ({ step, readOnly, update }) => (
       <>
         <FindingText step={step} readOnly={readOnly} onChange={update} />
+        <label className="flex min-h-11 items-center gap-2 text-sm">
+          <input type="checkbox" className="h-5 w-5" checked={step.returns} disabled={readOnly} onChange={(e) => update({ ...step, returns: e.target.checked })} />
+          Returns to the procedure that continued here (when it asked to come back)
+        </label>
         <PartsEditor parts={step.parts} disabled={readOnly} onChange={(parts) => update({ ...step, parts })} />
       </>
     ),
@@ -118,6 +123,15 @@ export const KIND_EDITORS: { readonly [K in StepKind]: KindEditor<K> } = {
     baseName: 'handoff',
     fresh: (id, position) => ({ ...common, id, position, kind: 'handoff', title: 'Hand to a senior technician', reason: 'Describe why' }),
     Fields: ({ step, readOnly, update }) => <HandoffText step={step} readOnly={readOnly} onChange={update} />,
+  },
+  link: {
+    hint: 'Go on in another procedure',
+    glyph: 'M3 10h6M9 6l4 4-4 4M13 4h4v12h-4',
+    outline: 'process',
+    tone: { fill: 'var(--color-signal-soft)', stroke: 'var(--color-ink)', text: 'text-ink' },
+    baseName: 'continueIn',
+    fresh: (id, position) => ({ ...common, id, position, kind: 'link', title: 'Continue in another procedure', procedure: 'choose-a-procedure' }),
+    Fields: ({ step, stepIds, readOnly, update }) => <LinkFields step={step} stepIds={stepIds} readOnly={readOnly} onChange={update} />,
   },
 };
 

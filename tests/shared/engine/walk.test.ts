@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { walkProcedure, type WalkEntry } from '@shared/engine';
 import { formatLimit, unitFactor } from '@shared/measure';
 import type { ProcedureDocument, Step, StepInput } from '@shared/schema';
+import { joinLinked } from '@shared/engine/link-join';
 import { DEMO_PROCEDURES } from '../../../content';
 import { doc, finding, observation, ohmsReading, task } from '../fixtures';
 import { rng, soundProcedure } from '../generate';
@@ -143,10 +144,14 @@ function randomWalk(d: ProcedureDocument, seed: number, maxEntries = 2000) {
 }
 
 describe('random walks over sound procedures', () => {
-  it('always reach an ending in the demo procedures (property)', () => {
+  it('always reach an ending in the demo procedures, joined with the ones they continue in (property)', () => {
+    const resolve = (slug: string) => {
+      const d = DEMO_PROCEDURES.find((p) => p.slug === slug);
+      return d && { slug, title: d.document.meta.title, versionId: slug, number: 1, document: d.document };
+    };
     fc.assert(
       fc.property(fc.constantFrom(...DEMO_PROCEDURES), fc.integer(), (demo, seed) => {
-        const s = randomWalk(demo.document, seed);
+        const s = randomWalk(joinLinked(demo.document, demo.slug, resolve).document, seed);
         expect(s.status).toBe('ended');
         expect(['finding', 'handoff']).toContain(s.ending?.kind);
       }),

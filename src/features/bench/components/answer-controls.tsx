@@ -23,8 +23,8 @@ interface ControlProps<S extends Step> {
 
 /**
  * The control each kind asks for on the phone, keyed by kind (a kind left out does not compile).
- * Null: the technician never answers it on a step card (a Formula is computed; a Finding or
- * Hand-off shows the ending form).
+ * Null: the technician never answers it on a step card (a Formula is computed, a link passes on
+ * to its other procedure; a Finding or Hand-off shows the ending form).
  */
 export const ANSWER_CONTROLS: { readonly [K in StepKind]: ((props: ControlProps<StepOf<K>>) => ReactNode) | null } = {
   reading: ({ step, values, remeasured, locked, reading, onReading, send }) => (
@@ -52,6 +52,7 @@ export const ANSWER_CONTROLS: { readonly [K in StepKind]: ((props: ControlProps<
   formula: null,
   finding: null,
   handoff: null,
+  link: null,
 };
 
 /** The control the step's kind asks for: a reading, one answer of an observation, or done. */

@@ -19,6 +19,7 @@ function answerText(doc: ProcedureDocument, p: PathStep, fmt: LocaleFormat): str
     const typed = p.reading ? `${p.reading.text} → ` : 'computed: ';
     return `${typed}${shown}${p.decision?.verdict ? ` (${VERDICT[p.decision.verdict]})` : ''}`;
   }
+  if (p.kind === 'link') return `continued in ${step?.kind === 'link' ? (step.procedureTitle ?? step.procedure) : 'another procedure'}`;
   return p.kind === 'task' ? 'done' : '';
 }
 

@@ -16,7 +16,7 @@ export interface Progress {
 function lastBranch(path: readonly PathStep[], currentId: string): { from: string; to: string } | null {
   for (let i = path.length - 1; i >= 0; i--) {
     const p = path[i]!;
-    if (p.kind === 'formula' || p.outcome === 'ended') continue;
+    if (p.outcome === 'computed' || p.outcome === 'ended') continue;
     return { from: p.stepId, to: path[i + 1]?.stepId ?? currentId };
   }
   return null;

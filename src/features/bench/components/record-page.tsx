@@ -34,6 +34,10 @@ function answer(s: RecordStep, fmt: LocaleFormat): string {
   if (s.entered) return `${s.entered} → ${parsed(s, fmt)}`;
   if (s.answerId) return s.shown.answers?.find((a) => a.id === s.answerId)?.label ?? s.answerId;
   if (s.kind === 'formula') return `computed ${parsed(s, fmt)}`;
+  if (s.kind === 'link') {
+    const shown = s.shown as { procedure?: unknown; procedureTitle?: unknown };
+    return `continued in ${String(shown.procedureTitle ?? shown.procedure ?? 'another procedure')}`;
+  }
   return s.kind === 'task' ? 'done' : '';
 }
 

@@ -1,3 +1,4 @@
+import { STEP_TRAITS } from '@shared/engine/kinds';
 import { ProcedureWalk, type WalkEntry, type WalkState } from '@shared/engine/walk';
 import type { ProcedureDocument } from '@shared/schema/procedure';
 import { walkEntryOf } from '@shared/engine/step-entry';
@@ -62,14 +63,14 @@ export function walkRows(doc: ProcedureDocument, rows: readonly LocalRow[], from
   return { state: walk.state(), path, rows, walk };
 }
 
-/** Rows for the Formula steps the walker computed past the last row, so the server records them too. */
+/** Rows for the steps the walker passed by itself after the last row (Formulas, links), so the server records them too. */
 export function formulaRows(doc: ProcedureDocument, rows: readonly LocalRow[], now: string, from?: Walked | null): LocalRow[] {
   const added: LocalRow[] = [];
   const { state, path } = walkRows(doc, rows, from);
   let last = path[path.length - 1]?.id ?? null;
   for (let i = path.length; i < state.path.length; i++) {
     const p = state.path[i]!;
-    if (p.kind !== 'formula') break;
+    if (STEP_TRAITS[p.kind].arrival.on !== 'compute') break;
     const row: LocalRow = { id: crypto.randomUUID(), stepId: p.stepId, after: last, note: '', startedAt: now, answeredAt: now };
     added.push(row);
     last = row.id;
