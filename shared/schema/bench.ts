@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { partSchema, quantitySchema, safetyNoteSchema, stepIdSchema } from './procedure';
+import { STEP_KINDS, partSchema, quantitySchema, safetyNoteSchema, stepIdSchema } from './procedure';
 import { procedureDocumentSchema } from './procedure';
 import { MeterSpecEntrySchema } from './shop';
 
@@ -169,6 +169,10 @@ export const StepShown = z.object({
   repair: z.string().optional(),
   parts: z.array(partSchema).optional(),
   reason: z.string().optional(),
+  /** A "Continue in" step: the procedure it went on in (slug and title) and the step it began at. */
+  procedure: z.string().optional(),
+  procedureTitle: z.string().optional(),
+  entry: z.string().optional(),
   interval: z.object({ low: z.number(), high: z.number() }).nullable().optional(),
   corrections: z.object({ leadNull: z.number().optional(), temperatureFactor: z.number().optional() }).optional(),
   route: z.enum(['answered', 're-measure', 'computed', 'ended', 'stuck']).optional(),
@@ -181,7 +185,7 @@ export type StepShown = z.infer<typeof StepShown>;
 /** One stored answer in the record, superseded ones (changed later) included. */
 export const RecordStep = z.object({
   id: z.string().uuid(), seq: z.number().int().min(1), stepId: z.string(),
-  kind: z.enum(['reading', 'observation', 'task', 'formula', 'finding', 'handoff']),
+  kind: z.enum(STEP_KINDS),
   shown: StepShown, entered: z.string().nullable(), value: z.number().nullable(), unit: z.string().nullable(),
   verdict: verdictSchema.nullable(), bandId: z.string().nullable(), answerId: z.string().nullable(),
   superseded: z.boolean(), note: z.string(), startedAt: isoString, answeredAt: isoString, next: z.string().nullable(),
