@@ -2,7 +2,7 @@ import type { ShopContext } from '../auth/context';
 import { notFound } from '../lib/errors';
 import type { DiagnosisFilter, DiagnosisListQuery, DiagnosisPage, DiagnosisRow, DiagnosisStatus } from '@shared/stats/debrief-schema';
 import { diagnosisScope } from '../auth/policy';
-import { comebackDays, dayBounds, num, parseDocument, type Sql } from './debrief-scope';
+import { comebackDays, dayBounds, joinedDocument, num, type Sql } from './debrief-scope';
 
 // The diagnoses table of Debrief: filtered, sorted and paged in SQL; flags computed per row.
 
@@ -63,11 +63,14 @@ function baseSelect(clause: string, withFlags = true): string {
 
 type Titles = Map<string, Map<string, { title: string; kind: string }>>;
 
-/** Step titles of the versions on a page, from their documents (a handful of rows). */
-async function stepTitles(sql: Sql, versionIds: string[]): Promise<Titles> {
-  if (!versionIds.length) return new Map();
-  const rows = await sql(`SELECT id, document FROM procedure_versions WHERE id = ANY($1::uuid[])`, [versionIds]);
-  return new Map(rows.map((r) => [String(r.id), new Map(parseDocument(r.document).steps.map((s) => [s.id, { title: s.title, kind: s.kind }]))]));
+/** Step titles of the versions on a page, from their documents joined with what they link to (a handful of rows). */
+async function stepTitles(sql: Sql, shopId: string, versionIds: string[]): Promise<Titles> {
+  const out: Titles = new Map();
+  for (const id of versionIds) {
+    const doc = await joinedDocument(sql, shopId, id);
+    out.set(id, new Map(doc.steps.map((s) => [s.id, { title: s.title, kind: s.kind }])));
+  }
+  return out;
 }
 
 function toRow(r: Record<string, unknown>, titles: Titles): DiagnosisRow {
@@ -102,7 +105,7 @@ export async function listDiagnoses(sql: Sql, ctx: ShopContext, q: DiagnosisList
   const { rows, days, clause, bind } = await selectRows(sql, ctx, q, 'LIMIT $P1 OFFSET $P2', [q.pageSize, (q.page - 1) * q.pageSize]);
   const [count] = await sql(`SELECT count(*) AS n FROM diagnoses d JOIN procedure_versions v ON v.id = d.procedure_version_id
       JOIN vehicles veh ON veh.id = d.vehicle_id WHERE ${clause} AND $2::int > 0`, bind);
-  const titles = await stepTitles(sql, [...new Set(rows.map((r) => String(r.procedure_version_id)))]);
+  const titles = await stepTitles(sql, ctx.shopId, [...new Set(rows.map((r) => String(r.procedure_version_id)))]);
   return { rows: rows.map((r) => toRow(r, titles)), total: num(count?.n), page: q.page, pageSize: q.pageSize, comebackDays: days };
 }
 
@@ -116,7 +119,7 @@ const csvCell = (v: unknown): string => {
 /** The whole filtered set as CSV (at most 100 000 rows), same order as the table. */
 export async function diagnosesCsv(sql: Sql, ctx: ShopContext, q: DiagnosisListQuery): Promise<string> {
   const { rows } = await selectRows(sql, ctx, q, 'LIMIT 100000');
-  const titles = await stepTitles(sql, [...new Set(rows.map((r) => String(r.procedure_version_id)))]);
+  const titles = await stepTitles(sql, ctx.shopId, [...new Set(rows.map((r) => String(r.procedure_version_id)))]);
   const head = ['id', 'procedure', 'version', 'vehicle', 'model', 'technician', 'status', 'ending step', 'ended at step', 'started (UTC)',
     'ended (UTC)', 'duration (min)', 'borderline on the way', 'step taken back', 'came back'];
   const lines = rows.map((r) => toRow(r, titles)).map((d) => [d.id, d.procedureTitle, d.versionNumber, d.vehicleLabel, d.vehicleModel,
@@ -131,5 +134,5 @@ export async function findDiagnosisRow(sql: Sql, ctx: ShopContext, id: string): 
   const { clause, bind } = where(ctx, {}, days);
   const [row] = await sql(`${baseSelect(`${clause} AND d.id = $${bind.length + 1}`)}`, [...bind, id]);
   if (!row) throw notFound('That diagnosis');
-  return toRow(row, await stepTitles(sql, [String(row.procedure_version_id)]));
+  return toRow(row, await stepTitles(sql, ctx.shopId, [String(row.procedure_version_id)]));
 }

@@ -1,6 +1,6 @@
 import type { ShopContext } from '../auth/context';
 import { demand } from '../auth/policy';
-import { parseDocument, type Sql } from './debrief-scope';
+import { joinedDocument, parseDocument, type Sql } from './debrief-scope';
 import type { DebriefProcedure } from '@shared/stats/debrief-answers';
 
 export type { DebriefProcedure } from '@shared/stats/debrief-answers';
@@ -8,7 +8,7 @@ export type { DebriefProcedure } from '@shared/stats/debrief-answers';
 /** Procedures of the shop that have a numbered version, with diagnosis counts per version. */
 export async function debriefProcedures(sql: Sql, ctx: ShopContext): Promise<DebriefProcedure[]> {
   demand(ctx, 'analytics.read');
-  const rows = await sql(`SELECT p.id AS procedure_id, p.slug, p.title, v.id, v.number, v.status, v.published_at, v.document,
+  const rows = await sql(`SELECT p.id AS procedure_id, p.slug, p.title, v.id, v.number, v.status, v.published_at, v.document, v.links,
       (SELECT count(*) FROM diagnoses d WHERE d.shop_id = $1 AND d.procedure_version_id = v.id) AS diagnoses
     FROM procedures p JOIN procedure_versions v ON v.procedure_id = p.id AND v.status IN ('published', 'retired')
     WHERE p.shop_id = $1 AND p.archived_at IS NULL ORDER BY p.title, v.number DESC`, [ctx.shopId]);
@@ -17,7 +17,10 @@ export async function debriefProcedures(sql: Sql, ctx: ShopContext): Promise<Deb
     const id = String(r.procedure_id);
     let p = out.get(id);
     if (!p) {
-      p = { id, slug: String(r.slug), title: String(r.title), diagnoses: 0, versions: [], document: parseDocument(r.document) };
+      // The graph Debrief draws: the newest version, joined with what its links continue in.
+      const linked = Object.keys((r.links ?? {}) as object).length > 0;
+      const document = linked ? await joinedDocument(sql, ctx.shopId, String(r.id)) : parseDocument(r.document);
+      p = { id, slug: String(r.slug), title: String(r.title), diagnoses: 0, versions: [], document };
       out.set(id, p);
     }
     p.diagnoses += Number(r.diagnoses);

@@ -4,6 +4,7 @@ import type { ShopContext } from '../auth/context';
 import type { AppDeps } from '../deps';
 import { AppError, notFound } from '../lib/errors';
 import { upgradeProcedure, type ProcedureDocument } from '@shared/schema';
+import { joinLinked, MAX_LINK_DEPTH, type LinkedVersion } from '@shared/engine/link-join';
 import type { AnalyticsQuery } from '@shared/stats/debrief-schema';
 import { demand } from '../auth/policy';
 
@@ -49,6 +50,25 @@ export function parseDocument(raw: unknown): ProcedureDocument {
   return up.document;
 }
 
+/**
+ * A version's document joined with the versions its "Continue in" steps continue in, as the Bench
+ * walks it, so that Debrief names and draws the steps a diagnosis took in the other procedure.
+ */
+export async function joinedDocument(sql: Sql, shopId: string, versionId: string, depth = 0): Promise<ProcedureDocument> {
+  const [row] = await sql(`SELECT v.document, v.links, p.slug FROM procedure_versions v JOIN procedures p ON p.id = v.procedure_id
+    WHERE v.id = $1 AND v.shop_id = $2`, [versionId, shopId]);
+  if (!row) throw notFound('That version');
+  const doc = parseDocument(row.document);
+  const links = (row.links ?? {}) as Record<string, string>;
+  if (depth >= MAX_LINK_DEPTH || Object.keys(links).length === 0) return doc;
+  const targets = new Map<string, LinkedVersion>();
+  for (const [slug, id] of Object.entries(links)) {
+    const document = await joinedDocument(sql, shopId, id, depth + 1);
+    targets.set(slug, { slug, title: document.meta.title, versionId: id, number: 0, document });
+  }
+  return joinLinked(doc, String(row.slug), (slug) => targets.get(slug)).document;
+}
+
 /** Whole days: `from` at 00:00 UTC, `to` inclusive up to the next midnight. */
 export function dayBounds(q: { from?: string | undefined; to?: string | undefined }): [string, string] {
   const to = q.to ? new Date(Date.parse(`${q.to}T00:00:00Z`) + 86_400_000).toISOString() : 'infinity';
@@ -77,7 +97,7 @@ export interface Scope {
 export async function analyticsScope(sql: Sql, ctx: ShopContext, q: AnalyticsQuery): Promise<Scope> {
   demand(ctx, 'analytics.read');
   const rows = await sql(
-    `SELECT p.title, v.id, v.number, v.document FROM procedures p
+    `SELECT p.title, v.id, v.number, v.document, v.links FROM procedures p
      JOIN procedure_versions v ON v.procedure_id = p.id AND v.status IN ('published', 'retired')
      WHERE p.id = $1 AND p.shop_id = $2 ORDER BY v.number DESC`,
     [q.procedureId, ctx.shopId],
@@ -89,7 +109,9 @@ export async function analyticsScope(sql: Sql, ctx: ShopContext, q: AnalyticsQue
   return {
     shopId: ctx.shopId, procedureId: q.procedureId, title: String(chosen.title),
     versionIds: q.versionId ? [q.versionId] : rows.map((r) => String(r.id)),
-    versionId: String(chosen.id), doc: parseDocument(chosen.document), from, to,
+    versionId: String(chosen.id), from, to,
+    // Only a version with links costs the extra reads of the versions it continues in.
+    doc: Object.keys((chosen.links ?? {}) as object).length ? await joinedDocument(sql, ctx.shopId, String(chosen.id)) : parseDocument(chosen.document),
   };
 }
 
