@@ -34,7 +34,11 @@ const sizeOf = (req: Request): PictureSize => {
   return size as PictureSize;
 };
 
-/** `GET /api/pictures/:id/:size` (full, phone or thumb): any member of the shop; a stored picture never changes. */
+/**
+ * `GET /api/pictures/:id/:size` (full, phone or thumb): drafting members see every picture of the
+ * shop, Bench workers those of published or retired versions (or of a version their diagnosis
+ * pinned), everyone else gets 404 (readPicture). A stored picture never changes.
+ */
 export function pictureRoutes(deps: AppDeps): Router {
   const r = Router();
   r.get('/:id/:size', async (req, res) => {

@@ -4,6 +4,7 @@ import sharp from 'sharp';
 import type { ProcedureDocument } from '@shared/schema';
 import type { AppDeps } from '../deps';
 import type { ShopContext } from '../auth/context';
+import { can } from '../auth/policy';
 import { AppError, badRequest, notFound } from '../lib/errors';
 import { checkName, IMAGE_TYPES, imageType } from './image-check';
 import { expectStatus, findProcedure, findVersion } from './procedure-common';
@@ -140,9 +141,31 @@ export async function picturesByIds(deps: AppDeps, ctx: ShopContext, ids: readon
   );
 }
 
-/** The bytes of one size of a picture, for any member of the shop; another shop's picture is a 404. */
+/** A jsonb document that `@>` matches when some step of a version names the picture `:id`. */
+const NAMES_PICTURE = "jsonb_build_object('steps', jsonb_build_array(jsonb_build_object('pictures', jsonb_build_array(jsonb_build_object('id', CAST(:id AS text))))))";
+
+/**
+ * Who may see a picture, in one query: members who open drafts ('procedure.draft') see every
+ * picture of the shop (a fresh upload is named by no version yet); Bench workers see a picture
+ * that a published or retired version of the shop names, or a version one of their own diagnoses
+ * pinned. Everyone else, and another shop's picture, get the 404.
+ */
+const READ_SQL = `SELECT p.object_key, p.thumb_key, p.phone_key FROM step_pictures p
+  WHERE p.id = :id AND (
+    (:drafts AND p.shop_id = :shopId)
+    OR (:bench AND p.shop_id = :shopId AND EXISTS (SELECT 1 FROM procedure_versions v
+          WHERE v.shop_id = :shopId AND v.status IN ('published', 'retired') AND v.document @> ${NAMES_PICTURE}))
+    OR (:bench AND EXISTS (SELECT 1 FROM diagnoses d JOIN procedure_versions v ON v.id = d.procedure_version_id
+          WHERE d.shop_id = :shopId AND d.technician_id = :userId AND v.document @> ${NAMES_PICTURE})))`;
+
+/** The bytes of one size of a picture, for those who may see it (READ_SQL); anyone else gets a 404. */
 export async function readPicture(deps: AppDeps, ctx: ShopContext, id: string, size: PictureSize): Promise<{ body: Buffer; contentType: string }> {
-  const [row] = await picturesByIds(deps, ctx, [id]);
+  const drafts = can(ctx, 'procedure.draft');
+  const bench = can(ctx, 'diagnosis.work');
+  if (!drafts && !bench) throw notFound('That picture');
+  const [row] = await deps.sequelize.query<Pick<PictureRow, 'object_key' | 'thumb_key' | 'phone_key'>>(READ_SQL, {
+    replacements: { id, shopId: ctx.shopId, userId: ctx.userId, drafts, bench }, type: QueryTypes.SELECT,
+  });
   if (!row) throw notFound('That picture');
   return deps.store.get(size === 'full' ? row.object_key : size === 'phone' ? row.phone_key : row.thumb_key);
 }

@@ -36,6 +36,9 @@ const DIAGNOSIS_READERS: readonly Role[] = MEMBERS.filter((r) => readsDiagnoses(
  */
 const NOT_THEIRS: readonly Role[] = MEMBERS.filter((r) => r !== 'technician' && !may([r], 'diagnosis.readAll') && !may([r], 'diagnosis.workAny'));
 
+/** Members who neither open drafts nor work at the Bench: no picture is theirs to see. */
+const PICTURE_BLIND: readonly Role[] = MEMBERS.filter((r) => !may([r], 'procedure.draft') && !may([r], 'diagnosis.work'));
+
 export const POLICY: Readonly<Record<string, Rule>> = {
   'GET /api/health': { may: 'anyone' },
 
@@ -92,8 +95,9 @@ export const POLICY: Readonly<Record<string, Rule>> = {
   'GET /api/procedures/:id/versions/:versionId/comments': { may: DRAFTING },
   'POST /api/procedures/:id/versions/:versionId/comments': { may: DRAFTING },
   'POST /api/procedures/:id/versions/:versionId/pictures': { may: AUTHOR },
-  // a step's reference pictures: every member walks procedures, so every member sees them
-  'GET /api/pictures/:id/:size': { may: MEMBERS },
+  // a step's reference pictures: the matrix's picture is named by the published version, so Bench
+  // workers and drafting members see it; to anyone else it does not exist (404, like a foreign id)
+  'GET /api/pictures/:id/:size': { may: MEMBERS, hidden: PICTURE_BLIND },
 
   // Debrief: the replay and the list follow the same diagnosis readers as the Bench's record
   'GET /api/debrief/procedures': { may: ANALYSTS },

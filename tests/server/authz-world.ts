@@ -22,7 +22,7 @@ export interface ShopWorld {
   /** a diagnosis of the shop's technician */
   diagnosisId: string;
   attachmentId: string;
-  /** a reference picture stored for the published procedure's step `prepare` */
+  /** a reference picture stored for, and named by, the published procedure's step `prepare` */
   pictureId: string;
   memberId: string;
   /** the technician whose diagnoses these are */
@@ -73,6 +73,10 @@ export async function buildWorld(env: TestEnv, shopId: string, technicianId: str
   const diagnosisId = await diagnosis();
   const pictureId = randomUUID();
   await storePictures(env.runtime.deps, { shopId, procedureId, versionId, userId: technicianId }, [{ id: pictureId, stepId: 'prepare', picture: await preparePicture(TINY_PNG, 'pins.png') }]);
+  // the published version names it, as a lead's publish would have left it
+  const named = fixtureDoc();
+  named.steps = named.steps.map((s) => (s.id === 'prepare' ? { ...s, pictures: [{ id: pictureId, caption: 'Plug lead' }] } : s));
+  await ProcedureVersion.update({ document: named as unknown as Record<string, unknown> }, { where: { id: versionId } });
   return {
     pictureId,
     shopId, procedureId, versionId, slug, vehicleId: vehicle.id, meterId: meter.id, diagnosisId, technicianId,

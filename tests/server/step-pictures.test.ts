@@ -7,7 +7,9 @@ import { startTestApp, signInAs, otherShopMember, expectEnvelope, type TestEnv, 
 import { storedObjectCount, TINY_PNG } from './bench-fixtures';
 import { doc, finding, observation, ohmsReading } from '../shared/fixtures';
 import { MAX_PHOTO_BYTES } from '../../server/services/image-check';
-import { Procedure } from '../../server/models';
+import { randomUUID } from 'node:crypto';
+import { Diagnosis, Procedure, User, Vehicle } from '../../server/models';
+import { readPicture } from '../../server/services/step-picture.service';
 
 let env: TestEnv;
 let author: Client;
@@ -200,6 +202,87 @@ describe('pictures belong to the version', () => {
     }
     expect((await upload(stranger, ids, TINY_PNG, 'pins.png')).status).toBe(404);
     expect((await tech.get(`/api/pictures/${id}/huge`)).status).toBe(404);
+  });
+});
+
+describe('who may see a picture', () => {
+  const sizes = ['full', 'phone', 'thumb'] as const;
+  async function statuses(c: Client, id: string): Promise<number[]> {
+    return Promise.all(sizes.map(async (size) => (await c.get(`/api/pictures/${id}/${size}`)).status));
+  }
+
+  it("a draft's picture is seen by authors and leads only; once a published version names it, technicians see it too; trainers and admins never (404)", async () => {
+    const [trainer, admin] = await Promise.all([signInAs(env.app, 'trainer'), signInAs(env.app, 'admin')]);
+    const ids = await createDraft('Draft picture access');
+    const id = (await upload(author, ids, stripedPng(), 'pins.png').expect(201)).body.id as string;
+    // uploaded, not yet saved into the draft: the editor shows its thumbnail already
+    expect(await statuses(author, id)).toEqual([200, 200, 200]);
+    await attach(ids, [{ id, caption: 'Pins' }]);
+    expect(await statuses(lead, id)).toEqual([200, 200, 200]);
+    for (const c of [tech, trainer, admin]) {
+      const res = await c.get(`/api/pictures/${id}/phone`);
+      expect(res.status).toBe(404);
+      expect(expectEnvelope(res.body).code).toBe('not_found');
+    }
+    await publish(ids);
+    expect(await statuses(tech, id)).toEqual([200, 200, 200]);
+    expect(await statuses(trainer, id)).toEqual([404, 404, 404]);
+    expect(await statuses(admin, id)).toEqual([404, 404, 404]);
+    // retired, it stays readable: diagnoses that ran it still show it
+    await lead.post(url(ids, '/retire')).expect(200);
+    expect(await statuses(tech, id)).toEqual([200, 200, 200]);
+  });
+
+  it('a picture only the open draft names stays hidden from technicians while the published version does not name it', async () => {
+    const ids = await createDraft('New picture in the next draft');
+    await publish(ids);
+    const next = (await author.post(`/api/procedures/${ids.procedureId}/drafts`, {}).expect(201)).body as { id: string };
+    const draft = { procedureId: ids.procedureId, draftId: next.id };
+    const id = (await upload(author, draft, stripedPng(), 'pins.png').expect(201)).body.id as string;
+    const current = (await author.get(url(draft)).expect(200)).body as { lockVersion: number };
+    await attach({ ...draft, lock: current.lockVersion }, [{ id, caption: 'Pins, new' }]);
+    expect(await statuses(tech, id)).toEqual([404, 404, 404]);
+    expect(await statuses(author, id)).toEqual([200, 200, 200]);
+  });
+
+  it('a technician sees the pictures of a version their own diagnosis pinned, not those of a colleague\'s', async () => {
+    const ids = await createDraft('Pinned by a diagnosis');
+    const id = (await upload(author, ids, stripedPng(), 'pins.png').expect(201)).body.id as string;
+    await attach(ids, [{ id, caption: 'Pins' }]);
+    // a diagnosis pinned to this (unpublished) version, written straight to the table: only the pin grants the picture
+    const shopId = (await Procedure.findByPk(ids.procedureId))!.shopId;
+    const [techUser, leadUser, vehicle] = await Promise.all([
+      User.findOne({ where: { email: 'tech@larkspur.test' } }), User.findOne({ where: { email: 'lead@larkspur.test' } }), Vehicle.findOne({ where: { shopId } }),
+    ]);
+    const pin = (technicianId: string) => Diagnosis.create({
+      id: randomUUID(), shopId, procedureVersionId: ids.draftId, vehicleId: vehicle!.id, technicianId, meterId: null, complaint: 'Will not start',
+      conditions: { engine: 'cold', ambientC: 18, startingMethod: 'kick', batteryVolts: null }, endingStepId: null, outcome: null, endedAt: null, startedAt: new Date(),
+    });
+    await pin(leadUser!.id);
+    expect(await statuses(tech, id)).toEqual([404, 404, 404]);
+    await pin(techUser!.id);
+    expect(await statuses(tech, id)).toEqual([200, 200, 200]);
+  });
+
+  it('answers with one database query, and 404 for an id that was never stored', async () => {
+    const ids = await createDraft('One query');
+    const id = (await upload(author, ids, stripedPng(), 'pins.png').expect(201)).body.id as string;
+    await attach(ids, [{ id, caption: 'Pins' }]);
+    await publish(ids);
+    const shopId = (await Procedure.findByPk(ids.procedureId))!.shopId;
+    const techUser = await User.findOne({ where: { email: 'tech@larkspur.test' } });
+    const { sequelize } = env.runtime.deps;
+    let queries = 0;
+    const count = () => { queries++; };
+    sequelize.addHook('beforeQuery', 'count-picture-queries', count);
+    try {
+      const picture = await readPicture(env.runtime.deps, { userId: techUser!.id, shopId, roles: ['technician'] }, id, 'phone');
+      expect(picture.contentType).toBe('image/webp');
+    } finally {
+      sequelize.removeHook('beforeQuery', 'count-picture-queries');
+    }
+    expect(queries).toBe(1);
+    expect(await statuses(author, randomUUID())).toEqual([404, 404, 404]);
   });
 });
 
