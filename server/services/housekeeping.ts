@@ -1,5 +1,6 @@
 import { QueryTypes } from 'sequelize';
 import type { AppDeps } from '../deps';
+import { sweepUnnamedPictures } from './step-picture.service';
 
 /**
  * Marks diagnoses left untouched past each shop's abandon time as abandoned. Runs every few
@@ -29,5 +30,10 @@ export function startHousekeeping(deps: AppDeps): () => void {
   const timer = setInterval(sweep, 5 * 60 * 1000);
   timer.unref();
   sweep();
-  return () => clearInterval(timer);
+  // reads every version document of the shops with old pictures, so hourly rather than every sweep
+  const pictures = () => { sweepUnnamedPictures(deps).catch((err: unknown) => deps.log('housekeeping failed', err)); };
+  const pictureTimer = setInterval(pictures, 60 * 60 * 1000);
+  pictureTimer.unref();
+  pictures();
+  return () => { clearInterval(timer); clearInterval(pictureTimer); };
 }

@@ -186,3 +186,30 @@ export async function checkPictureRefs(deps: AppDeps, ctx: ShopContext, doc: Pro
       missing.map((m) => ({ path: `steps.${m.stepIndex}.pictures.${m.index}`, message: `No stored picture has the id ${m.id}` })));
   }
 }
+
+/** A picture named by no version is kept this long after upload, so an author's upload not yet saved into the draft is not swept. */
+export const UNNAMED_PICTURE_GRACE_HOURS = 24;
+
+/**
+ * Housekeeping: removes the pictures that no version of their shop names (any status: a draft,
+ * one in review, published or retired) and that are older than the grace period, rows first in
+ * one statement (so no row ever points at removed bytes), then their objects. Returns how many.
+ * A picture removed from a draft and put back after the sweep must be added again (the save says so).
+ */
+export async function sweepUnnamedPictures(deps: AppDeps, graceHours = UNNAMED_PICTURE_GRACE_HOURS): Promise<number> {
+  const gone = await deps.sequelize.query<{ object_key: string; thumb_key: string; phone_key: string }>(
+    `WITH old AS (SELECT id, shop_id FROM step_pictures WHERE created_at < now() - make_interval(secs => 3600 * CAST(:graceHours AS float8))),
+     named AS (
+       SELECT DISTINCT v.shop_id, pic->>'id' AS id
+         FROM procedure_versions v
+        CROSS JOIN LATERAL jsonb_array_elements(v.document->'steps') step
+        CROSS JOIN LATERAL jsonb_array_elements(CASE WHEN jsonb_typeof(step->'pictures') = 'array' THEN step->'pictures' ELSE '[]'::jsonb END) pic
+        WHERE v.shop_id IN (SELECT shop_id FROM old))
+     DELETE FROM step_pictures p USING old
+      WHERE p.id = old.id AND NOT EXISTS (SELECT 1 FROM named n WHERE n.shop_id = p.shop_id AND n.id = p.id::text)
+     RETURNING p.object_key, p.thumb_key, p.phone_key`,
+    { replacements: { graceHours }, type: QueryTypes.SELECT },
+  );
+  await Promise.all(gone.map((k) => removeObjects(deps, { objectKey: k.object_key, thumbKey: k.thumb_key, phoneKey: k.phone_key })));
+  return gone.length;
+}

@@ -9,7 +9,7 @@ import { doc, finding, observation, ohmsReading } from '../shared/fixtures';
 import { MAX_PHOTO_BYTES } from '../../server/services/image-check';
 import { randomUUID } from 'node:crypto';
 import { Diagnosis, Procedure, User, Vehicle } from '../../server/models';
-import { readPicture } from '../../server/services/step-picture.service';
+import { readPicture, sweepUnnamedPictures } from '../../server/services/step-picture.service';
 
 let env: TestEnv;
 let author: Client;
@@ -283,6 +283,55 @@ describe('who may see a picture', () => {
     }
     expect(queries).toBe(1);
     expect(await statuses(author, randomUUID())).toEqual([404, 404, 404]);
+  });
+});
+
+describe('housekeeping sweeps pictures no version names', () => {
+  const backdate = (ids: string[], hours: number) => env.runtime.deps.sequelize.query(
+    `UPDATE step_pictures SET created_at = now() - make_interval(hours => ${hours}) WHERE id IN (:ids)`, { replacements: { ids } },
+  );
+  const rowsOf = async (ids: string[]) => (await env.runtime.deps.sequelize.query<{ id: string }>(
+    'SELECT id FROM step_pictures WHERE id IN (:ids)', { replacements: { ids }, type: QueryTypes.SELECT },
+  )).map((r) => r.id).sort();
+
+  it('removes the rows and the three objects of old unnamed pictures; keeps fresh uploads and every picture a draft or a published version names', async () => {
+    const ids = await createDraft('Sweep');
+    const up = async (name: string) => (await upload(author, ids, stripedPng(), name).expect(201)).body.id as string;
+    const [keptByPublished, keptByDraft, dropped, neverSaved, fresh] = [await up('a.png'), await up('b.png'), await up('c.png'), await up('d.png'), await up('e.png')];
+    await attach(ids, [{ id: keptByPublished, caption: 'Published' }, { id: dropped, caption: 'Dropped later' }]);
+    await publish(ids);
+    // the next draft drops two and names a third: `dropped` is still named by the published version
+    const next = (await author.post(`/api/procedures/${ids.procedureId}/drafts`, {}).expect(201)).body as { id: string; lockVersion: number };
+    const draft = { procedureId: ids.procedureId, draftId: next.id, lock: next.lockVersion };
+    await attach(draft, [{ id: keptByDraft, caption: 'Draft only' }]);
+    await backdate([keptByPublished, keptByDraft, dropped, neverSaved], 25);
+    const before = storedObjectCount(env);
+    expect(await sweepUnnamedPictures(env.runtime.deps)).toBe(1);
+    expect(storedObjectCount(env)).toBe(before - 3);
+    expect(await rowsOf([keptByPublished, keptByDraft, dropped, neverSaved, fresh])).toEqual([keptByPublished, keptByDraft, dropped, fresh].sort());
+    for (const size of ['full', 'phone', 'thumb']) expect((await author.get(`/api/pictures/${neverSaved}/${size}`)).status).toBe(404);
+    expect((await author.get(`/api/pictures/${keptByDraft}/full`).buffer(true)).status).toBe(200);
+    // a second sweep finds nothing more; a picture under the grace period is never swept
+    expect(await sweepUnnamedPictures(env.runtime.deps)).toBe(0);
+    await backdate([fresh], 23);
+    expect(await sweepUnnamedPictures(env.runtime.deps)).toBe(0);
+    await backdate([fresh], 25);
+    expect(await sweepUnnamedPictures(env.runtime.deps)).toBe(1);
+    expect(await rowsOf([fresh])).toEqual([]);
+  });
+
+  it('a picture named only by a copy in another procedure is kept', async () => {
+    const ids = await createDraft('Sweep copy source');
+    const id = (await upload(author, ids, stripedPng(), 'pins.png').expect(201)).body.id as string;
+    await attach(ids, [{ id, caption: 'Pins' }]);
+    const copy = await author.post(`/api/procedures/${ids.procedureId}/duplicate`, { title: 'Sweep copy' });
+    expect(copy.status, JSON.stringify(copy.body)).toBe(201);
+    // the source draft drops the picture; only the copy names it now
+    const current = (await author.get(url(ids)).expect(200)).body as { lockVersion: number };
+    await attach({ ...ids, lock: current.lockVersion }, []);
+    await backdate([id], 25);
+    await sweepUnnamedPictures(env.runtime.deps);
+    expect(await rowsOf([id])).toEqual([id]);
   });
 });
 
