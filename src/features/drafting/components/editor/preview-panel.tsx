@@ -15,6 +15,7 @@ export function PreviewPanel({ doc, onPath, onClose }: { doc: ProcedureDocument;
   const [refusal, setRefusal] = useState<string | null>(null);
   const walked = useMemo(() => ({ ...doc, start: from }), [doc, from]);
   const state = useMemo(() => walkProcedure(walked, log), [walked, log]);
+  const picturesOf = (id: string) => doc.steps.find((s) => s.id === id)?.pictures;
   useEffect(() => onPath(state.path.map((p) => p.stepId), state.current?.id ?? null), [state, onPath]);
 
   function answer(a: WalkAnswer, acknowledged: boolean) {
@@ -42,8 +43,8 @@ export function PreviewPanel({ doc, onPath, onClose }: { doc: ProcedureDocument;
       <p className="text-xs text-ink-soft">Preview only: nothing is recorded as a diagnosis.</p>
       <div className="mx-auto w-[360px] max-w-full h-[560px] overflow-y-auto rounded-[28px] border-[10px] border-ink bg-panel p-4 shadow-lg"  data-testid="preview-phone">
         {refusal && <p role="alert" className="mb-2 rounded-lg bg-stop-soft p-2 font-semibold text-stop">{refusal}</p>}
-        {state.current && <PreviewStep key={`${state.current.id}-${log.length}`} view={state.current} remeasure={state.remeasure} onAnswer={answer} />}
-        {state.ending && <PreviewEnding view={state.ending} />}
+        {state.current && <PreviewStep key={`${state.current.id}-${log.length}`} view={state.current} pictures={picturesOf(state.current.id)} remeasure={state.remeasure} onAnswer={answer} />}
+        {state.ending && <PreviewEnding view={state.ending} pictures={picturesOf(state.ending.id)} />}
         {state.status === 'stuck' && <p role="alert" className="rounded-lg bg-stop-soft p-2 text-stop">{state.problem?.message}</p>}
       </div>
     </section>

@@ -4,12 +4,36 @@ import type { WalkAnswer } from '@shared/engine';
 import { SafetyNote, LimitsNotice } from '../../../../components/ui/safety';
 import { Button } from '../../../../components/ui/button';
 import { Input } from '../../../../components/ui/field';
+import type { StepPicture } from '@shared/schema/procedure';
+import { pictureUrl } from '../../../../lib/pictures/picture-url';
+
+/**
+ * The step's reference pictures as the phone shows them (the phone rendition, in order, with the
+ * caption under each); the author is online, so they come from the server. A tap opens the original.
+ */
+export function PreviewPictures({ pictures }: { pictures: readonly StepPicture[] | undefined }) {
+  if (!pictures?.length) return null;
+  return (
+    <section aria-label="Reference pictures" className="flex snap-x gap-3 overflow-x-auto pb-1">
+      {pictures.map((p) => (
+        <figure key={p.id} className={pictures.length === 1 ? 'w-full' : 'w-[72%] shrink-0 snap-start'} data-testid="preview-picture">
+          <a href={pictureUrl(p.id, 'full')} target="_blank" rel="noreferrer" className="block aspect-[4/3] overflow-hidden rounded-lg border-2 border-ink/30 bg-paper" aria-label={`Open full size: ${p.caption}`}>
+            <img src={pictureUrl(p.id, 'phone')} alt={p.caption} loading="lazy" decoding="async" className="h-full w-full object-contain" />
+          </a>
+          <figcaption className="mt-1 leading-snug">{p.caption}</figcaption>
+        </figure>
+      ))}
+    </section>
+  );
+}
 
 /**
  * A compact version of the technician's step screen, built on the shared step view: the same
  * safety notes, limits and answers the Bench shows, sized for a phone.
  */
-export function PreviewStep({ view, remeasure, onAnswer }: { view: StepView; remeasure: boolean; onAnswer: (a: WalkAnswer, acknowledged: boolean) => void }) {
+export function PreviewStep({ view, pictures, remeasure, onAnswer }: {
+  view: StepView; pictures?: readonly StepPicture[] | undefined; remeasure: boolean; onAnswer: (a: WalkAnswer, acknowledged: boolean) => void;
+}) {
   const [acknowledged, setAcknowledged] = useState(false);
   const [text, setText] = useState('');
   const blocked = view.mustAcknowledge && !acknowledged;
@@ -24,6 +48,7 @@ export function PreviewStep({ view, remeasure, onAnswer }: { view: StepView; rem
         )}>{n.text}</SafetyNote>
       ))}
       {view.instructions && <p className="whitespace-pre-line">{view.instructions}</p>}
+      <PreviewPictures pictures={pictures} />
       {view.kind === 'reading' && (
         <form className="flex flex-col gap-2" onSubmit={(e) => { e.preventDefault(); onAnswer({ kind: 'reading', text }, acknowledged); setText(''); }}>
           {view.limits && <p className="rounded-lg bg-paper p-2 text-lg">Limits: <strong>{view.limits.text}</strong></p>}
@@ -49,7 +74,7 @@ export function PreviewStep({ view, remeasure, onAnswer }: { view: StepView; rem
 }
 
 /** Where the preview ended: a Finding's cause, repair and parts, or a Hand-off's reason. */
-export function PreviewEnding({ view }: { view: StepView }) {
+export function PreviewEnding({ view, pictures }: { view: StepView; pictures?: readonly StepPicture[] | undefined }) {
   return (
     <div className="flex flex-col gap-2 rounded-lg border-2 border-go bg-go-soft p-3" data-testid="preview-ending">
       <p className="text-sm font-bold uppercase tracking-wide text-go">{view.kind === 'finding' ? 'Finding' : 'Hand-off'}</p>
@@ -58,6 +83,7 @@ export function PreviewEnding({ view }: { view: StepView }) {
       {view.repair && <p><strong>Repair:</strong> {view.repair}</p>}
       {view.parts && view.parts.length > 0 && <ul className="list-disc pl-5">{view.parts.map((p, i) => <li key={i}>{p.quantity} × {p.name}{p.partNumber ? ` (${p.partNumber})` : ''}</li>)}</ul>}
       {view.reason && <p><strong>Reason:</strong> {view.reason}</p>}
+      <PreviewPictures pictures={pictures} />
     </div>
   );
 }
