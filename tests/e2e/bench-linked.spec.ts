@@ -46,8 +46,11 @@ test('a "No spark" diagnosis with a weak spark continues in "Weak or intermitten
   await expect(page.getByText('Diagnosis finished')).toBeVisible();
   await expect(page.getByTestId('sync-status')).toHaveText('All synced', { timeout: 20_000 });
 
-  const rec = await (await page.request.get(`/api/diagnoses/${id}`)).json() as { status: string; procedureSlug?: string; steps: { stepId: string; kind: string }[] };
-  expect(rec.status).toBe('finished');
+  type Rec = { status: string; procedureSlug?: string; steps: { stepId: string; kind: string }[] };
+  const read = async () => await (await page.request.get(`/api/diagnoses/${id}`)).json() as Rec;
+  // the ending reaches the server through the phone's outbox: wait for the record to say so
+  await expect.poll(async () => (await read()).status, { timeout: 20_000 }).toBe('finished');
+  const rec = await read();
   expect(rec.steps.map((s) => s.stepId)).toEqual(['prepare', 'sparkTest', 'useWeakSpark', 'k1_prepare', 'k1_plugInspect', 'k1_plugReplace']);
   // One record: the phone's list holds this one diagnosis, not a second for the other procedure.
   const mine = await (await page.request.get('/api/diagnoses?status=finished')).json() as { id: string }[];
